@@ -2,19 +2,19 @@ import { z } from 'zod';
 import { limits } from './limits';
 
 export const emailField = z
-  .string()
+  .string({ error: 'Enter your e-mail address' })
   .trim()
   .toLowerCase()
   .max(limits.emailMax, `At most ${limits.emailMax} characters`)
   .pipe(z.email({ message: 'Enter a valid e-mail address' }));
 
 export const passwordField = z
-  .string()
+  .string({ error: 'Enter a password' })
   .min(limits.passwordMin, `Use at least ${limits.passwordMin} characters`)
   .max(limits.passwordMax, `At most ${limits.passwordMax} characters`);
 
 export const displayNameField = z
-  .string()
+  .string({ error: 'Enter your name' })
   .trim()
   .min(1, 'Enter your name')
   .max(limits.nameMax, `At most ${limits.nameMax} characters`);
@@ -28,7 +28,7 @@ export type AuthSignUpInput = z.infer<typeof AuthSignUpSchema>;
 
 export const AuthSignInSchema = z.object({
   email: emailField,
-  password: z.string().min(1, 'Enter your password').max(limits.passwordMax),
+  password: z.string({ error: 'Enter your password' }).min(1, 'Enter your password').max(limits.passwordMax),
 });
 export type AuthSignInInput = z.infer<typeof AuthSignInSchema>;
 
@@ -36,7 +36,7 @@ export const PasswordResetRequestSchema = z.object({ email: emailField });
 export type PasswordResetRequestInput = z.infer<typeof PasswordResetRequestSchema>;
 
 export const PasswordResetConfirmSchema = z.object({
-  token: z.string().min(20, 'This reset link is not valid').max(200),
+  token: z.string({ error: 'This reset link is not valid' }).min(20, 'This reset link is not valid').max(200),
   password: passwordField,
 });
 export type PasswordResetConfirmInput = z.infer<typeof PasswordResetConfirmSchema>;

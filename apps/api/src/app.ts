@@ -1,0 +1,88 @@
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import type { Logger } from 'pino';
+import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import type { Env } from './config/env';
+import type { Db } from './db/client';
+import type { Mailer } from './mail/mailer';
+import type { FakeInbox } from './mail/fakeSmtp';
+import { createLucia } from './services/lucia';
+import type { ServiceContext } from './services/context';
+import { sessionMiddleware } from './middleware/session';
+import { originCheck } from './middleware/csrf';
+import { apiNotFound, errorHandler } from './middleware/errors';
+import { authRouter } from './routes/auth/auth';
+import { accountRouter } from './routes/account/account';
+import { devMailRouter } from './routes/dev/devMail';
+import { healthRouter } from './routes/health/health';
+
+export interface AppDeps {
+  env: Env;
+  db: Db;
+  mailer: Mailer;
+  logger: Logger;
+  /** The fake inbox, when mail goes to the local fake SMTP server. */
+  inbox?: FakeInbox;
+  now?: () => Date;
+}
+
+export function appUrlOf(env: Env) {
+  return (env.APP_URL ?? `http://${env.HOST}:${env.PORT}`).replace(/\/$/, '');
+}
+
+export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } {
+  const { env, db, mailer, logger } = deps;
+  const appUrl = appUrlOf(env);
+  const https = appUrl.startsWith('https://');
+  const lucia = createLucia(db, { secureCookie: https, sessionDays: env.SESSION_DAYS });
+  const ctx: ServiceContext = { db, lucia, mailer, appUrl, now: deps.now ?? (() => new Date()) };
+
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    pinoHttp({
+      logger,
+      genReqId: (req, res) => {
+        const id = randomUUID();
+        res.setHeader('X-Request-Id', id);
+        return id;
+      },
+      autoLogging: env.NODE_ENV !== 'test',
+    }),
+  );
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'upgrade-insecure-requests': https ? [] : null,
+        },
+      },
+      strictTransportSecurity: https,
+    }),
+  );
+
+  const api = express.Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use(originCheck([appUrl, ...env.ALLOWED_ORIGINS.split(',').filter(Boolean)]));
+  api.use(sessionMiddleware(lucia));
+  api.use('/health', healthRouter(db));
+  api.use('/auth', authRouter(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT }));
+  api.use('/account', accountRouter(ctx));
+  if (deps.inbox) api.use('/dev/mail', devMailRouter(deps.inbox));
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  const webDist = env.WEB_DIST ?? path.resolve(import.meta.dirname, '../../web/dist');
+  if (env.NODE_ENV === 'production' && existsSync(path.join(webDist, 'index.html'))) {
+    app.use(express.static(webDist, { index: false, maxAge: '1h' }));
+    app.get(/^\/(?!api\/).*/, (_req, res) => res.sendFile(path.join(webDist, 'index.html')));
+  }
+
+  app.use(errorHandler);
+  return { app, ctx };
+}

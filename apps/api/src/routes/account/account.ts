@@ -1,0 +1,17 @@
+import { Router } from 'express';
+import { validate } from '../../middleware/validate';
+import { currentUser, requireUser } from '../../middleware/session';
+import { presentUser } from '../../presenters/user';
+import { updateAccount } from '../../services/account';
+import type { ServiceContext } from '../../services/context';
+import { AccountUpdateSchema } from './schema';
+
+export function accountRouter(ctx: ServiceContext) {
+  const router = Router();
+  router.use(requireUser);
+  router.patch('/', validate({ body: AccountUpdateSchema }), async (req, res) => {
+    const user = await updateAccount(ctx, currentUser(req).id, req.body);
+    res.json({ user: presentUser(user) });
+  });
+  return router;
+}

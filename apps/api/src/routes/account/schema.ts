@@ -1,0 +1,1 @@
+export { AccountUpdateSchema } from '@barmkeep/schemas';

@@ -1,0 +1,6 @@
+export {
+  AuthSignUpSchema,
+  AuthSignInSchema,
+  PasswordResetRequestSchema,
+  PasswordResetConfirmSchema,
+} from '@barmkeep/schemas';

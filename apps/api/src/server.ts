@@ -1,0 +1,50 @@
+import { loadEnv } from './config/env';
+import { connect, runMigrations } from './db/client';
+import { createApp, appUrlOf } from './app';
+import { createLogger } from './lib/logger';
+import { FakeInbox, startFakeSmtp } from './mail/fakeSmtp';
+import { createSmtpMailer, type Mailer } from './mail/mailer';
+import { seedDemoIfEmpty, DEMO_PASSWORD } from './db/seed';
+
+const env = loadEnv();
+const logger = createLogger(env);
+const database = connect(env.DATABASE_URL);
+
+await runMigrations(database.db);
+logger.info('migrations applied');
+
+let mailer: Mailer;
+let inbox: FakeInbox | undefined;
+let closeSmtp: (() => Promise<void>) | undefined;
+if (env.SMTP_URL && env.FAKE_SMTP !== '1') {
+  mailer = createSmtpMailer({ url: env.SMTP_URL }, env.MAIL_FROM);
+} else {
+  inbox = new FakeInbox();
+  const smtp = await startFakeSmtp(inbox, env.FAKE_SMTP_PORT);
+  closeSmtp = smtp.close;
+  mailer = createSmtpMailer({ port: smtp.port }, env.MAIL_FROM);
+  logger.info({ port: smtp.port }, 'fake SMTP inbox listening on loopback');
+}
+
+let demoUsers: string[] = [];
+if (env.SEED_DEMO === '1') demoUsers = await seedDemoIfEmpty(database.db);
+
+const { app } = createApp({ env, db: database.db, mailer, logger, inbox });
+const server = app.listen(env.PORT, env.HOST, () => {
+  const url = appUrlOf(env);
+  console.log(`\nBarmkeep is running at ${url}`);
+  if (inbox) console.log(`Mail goes to the local fake inbox: ${url}/dev/mail`);
+  if (demoUsers.length) {
+    console.log(`Demo sign-ins (password for each: ${DEMO_PASSWORD}):`);
+    for (const u of demoUsers) console.log(`  ${u}`);
+  }
+});
+
+async function shutdown() {
+  server.close();
+  await closeSmtp?.();
+  await database.close();
+  process.exit(0);
+}
+process.on('SIGINT', shutdown);
+process.on('SIGTERM', shutdown);
