@@ -18,6 +18,7 @@ import { authRouter } from './routes/auth/auth';
 import { accountRouter } from './routes/account/account';
 import { devMailRouter } from './routes/dev/devMail';
 import { healthRouter } from './routes/health/health';
+import { adminRouter } from './routes/admin/admin';
 
 export interface AppDeps {
   env: Env;
@@ -73,6 +74,7 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   api.use('/health', healthRouter(db));
   api.use('/auth', authRouter(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT }));
   api.use('/account', accountRouter(ctx));
+  api.use('/admin', adminRouter(ctx));
   if (deps.inbox) api.use('/dev/mail', devMailRouter(deps.inbox));
   api.use(apiNotFound);
   app.use('/api', api);

@@ -33,3 +33,7 @@ export async function updateUser(
     .returning();
   return row;
 }
+
+export async function listUsers(db: Db, params: { limit: number; offset: number }) {
+  return db.select().from(users).orderBy(users.createdAt, users.id).limit(params.limit).offset(params.offset);
+}

@@ -1,0 +1,67 @@
+import { inject } from 'vitest';
+import supertest from 'supertest';
+import { randomBytes } from 'node:crypto';
+import { createApp } from '../src/app';
+import { loadEnv, type Env } from '../src/config/env';
+import { connect, type Database } from '../src/db/client';
+import { createLogger } from '../src/lib/logger';
+import { FakeInbox, startFakeSmtp } from '../src/mail/fakeSmtp';
+import { createSmtpMailer } from '../src/mail/mailer';
+
+export const ORIGIN = 'http://barmkeep.test';
+
+export interface TestApp {
+  app: import('express').Express;
+  request: ReturnType<typeof supertest.agent>;
+  /** A new cookie jar (another browser) on the same app. */
+  agent(): ReturnType<typeof supertest.agent>;
+  database: Database;
+  inbox: FakeInbox;
+  env: Env;
+  clock: { now: Date };
+  close(): Promise<void>;
+}
+
+/** A full app on the run's test database, with its own fake SMTP server and a settable clock. */
+export async function buildTestApp(overrides: Partial<Record<keyof Env, string>> = {}): Promise<TestApp> {
+  const env = loadEnv({
+    NODE_ENV: 'test',
+    DATABASE_URL: inject('databaseUrl'),
+    APP_URL: ORIGIN,
+    AUTH_RATE_LIMIT: '1000',
+    ...overrides,
+  });
+  const database = connect(env.DATABASE_URL, { max: 4 });
+  const inbox = new FakeInbox();
+  const smtp = await startFakeSmtp(inbox);
+  const mailer = createSmtpMailer({ port: smtp.port }, env.MAIL_FROM);
+  const clock = { now: new Date() };
+  const { app } = createApp({ env, db: database.db, mailer, logger: createLogger(env), inbox, now: () => clock.now });
+  const agent = () => supertest.agent(app).set('Origin', ORIGIN);
+  return {
+    app,
+    request: agent(),
+    agent,
+    database,
+    inbox,
+    env,
+    clock,
+    async close() {
+      await smtp.close();
+      await database.close();
+    },
+  };
+}
+
+let counter = 0;
+/** Deterministic-enough unique people for each test. */
+export function buildPerson(overrides: Partial<{ email: string; password: string; name: string }> = {}) {
+  counter += 1;
+  const tag = `${process.pid}-${counter}-${randomBytes(2).toString('hex')}`;
+  return { email: `keeper-${tag}@example.test`, password: 'correct-horse-yeast', name: `Keeper ${counter}`, ...overrides };
+}
+
+export async function signUp(agent: ReturnType<typeof supertest.agent>, person = buildPerson()) {
+  const res = await agent.post('/api/auth/sign-up').send(person).expect(201);
+  return { person, user: res.body.user as { id: string; email: string } };
+}
