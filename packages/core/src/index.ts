@@ -1,1 +1,11 @@
-export {};
+export * from './gravity.js';
+export * from './stats.js';
+export * from './counting.js';
+export * from './pitch.js';
+export * from './viability.js';
+export * from './estimate.js';
+export * from './growth.js';
+export * from './planner.js';
+export * from './wort.js';
+export * from './batch.js';
+export * from './units.js';
