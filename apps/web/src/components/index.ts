@@ -1,0 +1,12 @@
+export { Button, ButtonLink, buttonClasses, type ButtonVariant } from './Button';
+export { Card } from './Card';
+export { EmptyState } from './EmptyState';
+export { FieldError } from './FieldError';
+export { Loading } from './Loading';
+export { Mark } from './Mark';
+export { FormAlert, Notice, type NoticeTone } from './Notice';
+export { PageHeader } from './PageHeader';
+export { RadioGroup, type RadioOption } from './RadioGroup';
+export { Select, type SelectOption } from './Select';
+export { TextField } from './TextField';
+export { cx } from './cx';

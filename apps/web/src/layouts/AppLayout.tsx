@@ -1,0 +1,90 @@
+import { Navigate, NavLink, Outlet, useLocation } from 'react-router';
+import { useQuery } from '@tanstack/react-query';
+import { LogOut } from 'lucide-react';
+import { authQueries } from '../api/auth/queries';
+import { useSignOutMutation } from '../api/auth/mutations';
+import { Button, Loading, Notice, cx } from '../components';
+import { signInPathFor } from '../routes/guards';
+import { Brand } from './Brand';
+
+const navItems = [
+  { to: '/', label: 'Cultures', end: true },
+  { to: '/account', label: 'Account', end: false },
+] as const;
+
+/** The signed-in shell: header with navigation, the person's name and sign-out. */
+export function Component() {
+  const { data: user } = useQuery(authQueries.me());
+  const location = useLocation();
+  const signOut = useSignOutMutation();
+
+  if (user === null) {
+    // Signed out here (or the session ran out): go to sign-in, and come back
+    // to this page afterwards unless the person chose to sign out.
+    const leaving = signOut.isPending || signOut.isSuccess;
+    return <Navigate to={leaving ? '/sign-in' : signInPathFor(location.pathname + location.search)} replace />;
+  }
+  if (user === undefined) return <Loading />;
+
+  return (
+    <div className="min-h-dvh">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-10 focus:rounded focus:bg-paper-raised focus:px-3 focus:py-2"
+      >
+        Skip to content
+      </a>
+      <header className="border-b border-rule bg-paper-raised/60">
+        <div className="mx-auto flex max-w-4xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+          <Brand />
+          <nav aria-label="Main" className="order-last w-full sm:order-none sm:w-auto">
+            <ul className="flex gap-1">
+              {navItems.map((item) => (
+                <li key={item.to}>
+                  <NavLink
+                    to={item.to}
+                    end={item.end}
+                    className={({ isActive }) =>
+                      cx(
+                        'inline-flex min-h-11 items-center rounded-md px-3 font-medium',
+                        isActive
+                          ? 'bg-accent-soft text-accent-strong underline decoration-2 underline-offset-6'
+                          : 'text-ink-muted hover:bg-paper-sunk hover:text-ink',
+                      )
+                    }
+                  >
+                    {item.label}
+                  </NavLink>
+                </li>
+              ))}
+            </ul>
+          </nav>
+          <div className="ml-auto flex min-w-0 items-center gap-2">
+            <span className="truncate text-sm text-ink-muted" title={user.email}>
+              <span className="sr-only">Signed in as </span>
+              {user.name}
+            </span>
+            <Button
+              variant="secondary"
+              className="min-h-10 px-3 text-sm"
+              icon={<LogOut aria-hidden className="size-4" />}
+              busy={signOut.isPending}
+              busyLabel="Signing out…"
+              onClick={() => signOut.mutate()}
+            >
+              Sign out
+            </Button>
+          </div>
+        </div>
+      </header>
+      <main id="main" tabIndex={-1} className="mx-auto max-w-4xl px-4 py-6 outline-none sm:py-8">
+        {signOut.isError ? (
+          <Notice tone="danger" live="assertive" title="Could not sign out" className="mb-4">
+            {signOut.error.message}
+          </Notice>
+        ) : null}
+        <Outlet />
+      </main>
+    </div>
+  );
+}

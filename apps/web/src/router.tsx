@@ -1,0 +1,59 @@
+import type { QueryClient } from '@tanstack/react-query';
+import type { RouteObject } from 'react-router';
+import { RootLayout, RootHydrateFallback } from './layouts/RootLayout';
+import { RouteError } from './layouts/RouteError';
+import { guestOnlyLoader, requireUserLoader } from './routes/guards';
+
+/**
+ * Every page and layout below the root is lazy-loaded, so the first visit to
+ * /sign-in downloads only what that page needs.
+ */
+export function createRoutes(queryClient: QueryClient): RouteObject[] {
+  return [
+    {
+      id: 'root',
+      Component: RootLayout,
+      HydrateFallback: RootHydrateFallback,
+      ErrorBoundary: RouteError,
+      children: [
+        {
+          id: 'guest',
+          loader: guestOnlyLoader(queryClient),
+          lazy: () => import('./layouts/AuthLayout'),
+          children: [
+            { path: 'sign-in', lazy: () => import('./routes/sign-in') },
+            { path: 'sign-up', lazy: () => import('./routes/sign-up') },
+            { path: 'forgot-password', lazy: () => import('./routes/forgot-password') },
+          ],
+        },
+        {
+          // Open whether or not someone is signed in: the link comes from an e-mail.
+          lazy: () => import('./layouts/AuthLayout'),
+          children: [{ path: 'reset-password', lazy: () => import('./routes/reset-password') }],
+        },
+        {
+          id: 'app',
+          loader: requireUserLoader(queryClient),
+          lazy: () => import('./layouts/AppLayout'),
+          children: [
+            { index: true, lazy: () => import('./routes/home') },
+            { path: 'account', lazy: () => import('./routes/account') },
+          ],
+        },
+        {
+          // The local fake inbox, used to follow reset links in development and tests.
+          path: 'dev/mail',
+          lazy: () => import('./layouts/PlainLayout'),
+          children: [
+            { index: true, lazy: () => import('./routes/dev-mail') },
+            { path: ':messageId', lazy: () => import('./routes/dev-mail-message') },
+          ],
+        },
+        {
+          lazy: () => import('./layouts/PlainLayout'),
+          children: [{ path: '*', lazy: () => import('./routes/not-found') }],
+        },
+      ],
+    },
+  ];
+}
