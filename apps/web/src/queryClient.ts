@@ -8,14 +8,13 @@ import { authKeys } from './api/auth/queries';
  * person to the sign-in page.
  */
 export function createQueryClient(): QueryClient {
-  let queryClient: QueryClient;
   const onUnauthenticated = (error: unknown) => {
     if (isApiError(error) && error.status === 401 && error.code === 'unauthenticated') {
       queryClient.setQueryData(authKeys.me(), null);
     }
   };
 
-  queryClient = new QueryClient({
+  const queryClient: QueryClient = new QueryClient({
     queryCache: new QueryCache({ onError: onUnauthenticated }),
     mutationCache: new MutationCache({ onError: onUnauthenticated }),
     defaultOptions: {

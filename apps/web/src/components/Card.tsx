@@ -5,7 +5,10 @@ import { cx } from './cx';
 export function Card({ className, ...rest }: HTMLAttributes<HTMLDivElement>) {
   return (
     <div
-      className={cx('rounded-lg border border-rule bg-paper-raised p-5 shadow-[0_1px_0_var(--color-rule)] sm:p-6', className)}
+      className={cx(
+        'rounded-lg border border-rule bg-paper-raised p-5 shadow-[0_1px_0_var(--color-rule)] sm:p-6',
+        className,
+      )}
       {...rest}
     />
   );

@@ -10,7 +10,10 @@ function describe(error: unknown): { title: string; detail: string; requestId?: 
   if (isApiError(error)) {
     return { title: 'Barmkeep could not load this page', detail: error.message, requestId: error.requestId };
   }
-  if (error instanceof TypeError && /dynamically imported module|Importing a module script failed/i.test(error.message)) {
+  if (
+    error instanceof TypeError &&
+    /dynamically imported module|Importing a module script failed/i.test(error.message)
+  ) {
     return {
       title: 'Barmkeep was updated',
       detail: 'A newer version is available. Reload the page to continue.',

@@ -11,7 +11,7 @@ describe('applyApiError', () => {
       status: 400,
       code: 'validation_failed',
       message: 'Check the highlighted fields',
-      fields: { password: ['Use at least 10 characters', 'At most 200 characters'] },
+      fields: { 'body.password': ['Use at least 10 characters', 'At most 200 characters'] },
     });
     const placed = applyApiError<Values>(error, setError, ['email', 'password']);
     expect(placed).toBe(true);
@@ -19,6 +19,22 @@ describe('applyApiError', () => {
     expect(setError).toHaveBeenCalledWith(
       'password',
       { type: 'server', message: 'Use at least 10 characters At most 200 characters' },
+      { shouldFocus: true },
+    );
+  });
+
+  it('accepts field paths without the body. prefix too', () => {
+    const setError = vi.fn();
+    const error = new ApiError({
+      status: 400,
+      code: 'validation_failed',
+      message: 'Check the highlighted fields',
+      fields: { email: ['Enter a valid e-mail address'] },
+    });
+    applyApiError<Values>(error, setError, ['email', 'password']);
+    expect(setError).toHaveBeenCalledWith(
+      'email',
+      { type: 'server', message: 'Enter a valid e-mail address' },
       { shouldFocus: true },
     );
   });
@@ -36,7 +52,7 @@ describe('applyApiError', () => {
       status: 400,
       code: 'validation_failed',
       message: 'Invalid input',
-      fields: { token: ['This reset link is not valid'] },
+      fields: { 'body.token': ['This reset link is not valid'] },
     });
     applyApiError<Values>(error, setError, ['email', 'password']);
     expect(setError).toHaveBeenCalledWith(FORM_ERROR, {

@@ -24,8 +24,10 @@ export function applyApiError<T extends FieldValues>(
   const leftover: string[] = [];
   let placed = false;
   let first = true;
-  for (const [path, fieldMessages] of Object.entries(error.fields)) {
+  for (const [rawPath, fieldMessages] of Object.entries(error.fields)) {
     const message = fieldMessages.join(' ');
+    // The API names body fields "body.email"; the form calls them "email".
+    const path = rawPath.startsWith('body.') ? rawPath.slice('body.'.length) : rawPath;
     if (known.has(path)) {
       setError(path as Path<T>, { type: 'server', message }, { shouldFocus: first });
       first = false;

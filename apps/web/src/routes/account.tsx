@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
 import { AccountUpdateSchema, limits, type UserDto } from '@barmkeep/schemas';
@@ -65,7 +65,7 @@ function AccountForm({ user }: { user: UserDto }) {
     setError,
     setValue,
     reset,
-    watch,
+    control,
     formState: { errors, isSubmitting, isDirty, isSubmitSuccessful },
   } = useForm({
     resolver: zodResolver(AccountFormSchema),
@@ -77,7 +77,7 @@ function AccountForm({ user }: { user: UserDto }) {
       timeZone: user.timeZone,
     },
   });
-  const chosenZone = watch('timeZone');
+  const chosenZone = useWatch({ control, name: 'timeZone' });
 
   const onSubmit = handleSubmit(async (values) => {
     try {

@@ -1,7 +1,7 @@
 import { Link, useParams } from 'react-router';
 import { useQuery } from '@tanstack/react-query';
 import { ArrowLeft } from 'lucide-react';
-import { devMailQueries } from '../api/devMail/queries';
+import { devMailQueries, recipients } from '../api/devMail/queries';
 import { isApiError } from '../api/client';
 import { Card, Loading, Notice } from '../components';
 import { formatDateTime } from '../lib/format';
@@ -13,12 +13,18 @@ export function Component() {
 
   return (
     <div className="space-y-4">
-      <Link to="/dev/mail" className="inline-flex min-h-11 items-center gap-1.5 text-accent underline underline-offset-4">
+      <Link
+        to="/dev/mail"
+        className="inline-flex min-h-11 items-center gap-1.5 text-accent underline underline-offset-4"
+      >
         <ArrowLeft aria-hidden className="size-4" /> All messages
       </Link>
       {message.isPending ? <Loading label="Opening the message…" /> : null}
       {message.isError ? (
-        <Notice tone={isApiError(message.error) && message.error.status === 404 ? 'info' : 'danger'} title="Message not available">
+        <Notice
+          tone={isApiError(message.error) && message.error.status === 404 ? 'info' : 'danger'}
+          title="Message not available"
+        >
           {isApiError(message.error) && message.error.status === 404
             ? 'There is no message with this id in the local inbox. The inbox is emptied when the server restarts.'
             : message.error.message}
@@ -32,7 +38,7 @@ export function Component() {
             <dt className="text-ink-muted">From</dt>
             <dd className="break-all">{message.data.from}</dd>
             <dt className="text-ink-muted">To</dt>
-            <dd className="break-all">{message.data.to}</dd>
+            <dd className="break-all">{recipients(message.data)}</dd>
             <dt className="text-ink-muted">Received</dt>
             <dd>
               <time dateTime={message.data.receivedAt} className="num">

@@ -1,7 +1,7 @@
 import { Link } from 'react-router';
 import { useQuery } from '@tanstack/react-query';
 import { Inbox, Mail, RefreshCw } from 'lucide-react';
-import { devMailQueries } from '../api/devMail/queries';
+import { devMailQueries, recipients } from '../api/devMail/queries';
 import { isApiError } from '../api/client';
 import { Button, EmptyState, Loading, Notice, PageHeader } from '../components';
 import { formatDateTime } from '../lib/format';
@@ -31,8 +31,8 @@ export function Component() {
       {inbox.isError ? (
         isApiError(inbox.error) && inbox.error.status === 404 ? (
           <Notice tone="info" title="No local inbox here">
-            This server sends real e-mail, so there is nothing to show. The local inbox exists only in development
-            and test setups.
+            This server sends real e-mail, so there is nothing to show. The local inbox exists only in development and
+            test setups.
           </Notice>
         ) : (
           <Notice tone="danger" title="Could not open the inbox" live="assertive">
@@ -56,8 +56,10 @@ export function Component() {
               >
                 <Mail aria-hidden className="mt-1 size-4 shrink-0 text-accent" />
                 <span className="min-w-0 flex-1">
-                  <span className="block font-medium text-accent underline-offset-4">{message.subject || '(no subject)'}</span>
-                  <span className="block truncate text-sm text-ink-muted">To {message.to}</span>
+                  <span className="block font-medium text-accent underline-offset-4">
+                    {message.subject || '(no subject)'}
+                  </span>
+                  <span className="block truncate text-sm text-ink-muted">To {recipients(message)}</span>
                 </span>
                 <time dateTime={message.receivedAt} className="num shrink-0 text-sm text-ink-muted">
                   {formatDateTime(message.receivedAt)}

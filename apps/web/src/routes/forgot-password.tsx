@@ -56,9 +56,8 @@ export function Component() {
       {sentTo ? (
         <div className="mt-4 space-y-4">
           <Notice tone="success" live="polite" word="Sent">
-            If <strong className="break-all">{sentTo}</strong> belongs to an account, a link to choose a new password
-            is on its way. It works once and expires after a while, so use it soon. Nothing arrived? Check the spam
-            folder.
+            If <strong className="break-all">{sentTo}</strong> belongs to an account, a link to choose a new password is
+            on its way. It works once and expires after a while, so use it soon. Nothing arrived? Check the spam folder.
           </Notice>
           <LocalInboxHint />
           <Button variant="secondary" onClick={() => setSentTo(null)}>

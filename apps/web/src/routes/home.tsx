@@ -25,8 +25,8 @@ export function Component() {
       >
         <p>
           Log a culture you have on hand — a fresh pack, a jar of saved slurry, a slant, dregs from a bottle. Barmkeep
-          notes where it came from, estimates how many cells are still alive, and reminds you before it gets too old
-          to pitch.
+          notes where it came from, estimates how many cells are still alive, and reminds you before it gets too old to
+          pitch.
         </p>
       </EmptyState>
     </>

@@ -91,7 +91,7 @@ export function Component() {
         <TextField
           label="New password"
           type="password"
-          hint={`At least ${limits.passwordMin} characters.`}
+          hint={`${limits.passwordMin} characters or more.`}
           autoComplete="new-password"
           revealable
           error={errors.password?.message}

@@ -59,7 +59,7 @@ describe('sign-up page', () => {
         error: {
           code: 'validation_failed',
           message: 'Check the highlighted fields',
-          fields: { name: ['This name is not allowed'] },
+          fields: { 'body.name': ['This name is not allowed'] },
         },
       }),
     );

@@ -87,7 +87,7 @@ export function Component() {
         <TextField
           label="Password"
           type="password"
-          hint={`At least ${limits.passwordMin} characters. A few unrelated words make a strong one.`}
+          hint={`${limits.passwordMin} characters or more. A few unrelated words make a strong one.`}
           autoComplete="new-password"
           revealable
           error={errors.password?.message}

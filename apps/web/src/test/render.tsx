@@ -12,10 +12,7 @@ export function renderPage(
     defaultOptions: { queries: { retry: false }, mutations: { retry: false } },
   });
   const router = createMemoryRouter(
-    [
-      { path, Component: Page },
-      ...otherPaths.map((other) => ({ path: other, element: <p>Arrived at {other}</p> })),
-    ],
+    [{ path, Component: Page }, ...otherPaths.map((other) => ({ path: other, element: <p>Arrived at {other}</p> }))],
     { initialEntries: [url] },
   );
   const result = render(

@@ -48,16 +48,14 @@ export function useSignOutMutation() {
 
 export function usePasswordResetRequestMutation() {
   return useMutation({
-    mutationFn: (input: PasswordResetRequestInput) =>
-      api.post<void>('/auth/password-reset/request', input),
+    mutationFn: (input: PasswordResetRequestInput) => api.post<void>('/auth/password-reset/request', input),
   });
 }
 
 export function usePasswordResetConfirmMutation() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: PasswordResetConfirmInput) =>
-      api.post<void>('/auth/password-reset/confirm', input),
+    mutationFn: (input: PasswordResetConfirmInput) => api.post<void>('/auth/password-reset/confirm', input),
     onSuccess: async () => {
       // A reset may end existing sessions; find out who (if anyone) is signed in now.
       await queryClient.invalidateQueries({ queryKey: authKeys.all });

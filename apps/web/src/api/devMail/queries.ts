@@ -4,12 +4,17 @@ import { api } from '../client';
 /** A message caught by the local fake SMTP server (development and tests only). */
 export interface DevMailMessage {
   id: string;
-  to: string;
+  /** One address or several. */
+  to: string | string[];
   from: string;
   subject: string;
   text: string;
   html: string;
   receivedAt: string;
+}
+
+export function recipients(message: Pick<DevMailMessage, 'to'>): string {
+  return Array.isArray(message.to) ? message.to.join(', ') : message.to;
 }
 
 export const devMailKeys = {
@@ -23,16 +28,14 @@ export const devMailQueries = {
   list: () =>
     queryOptions({
       queryKey: devMailKeys.lists(),
-      queryFn: async ({ signal }) =>
-        (await api.get<{ messages: DevMailMessage[] }>('/dev/mail', signal)).messages,
+      queryFn: async ({ signal }) => (await api.get<{ messages: DevMailMessage[] }>('/dev/mail', signal)).messages,
       retry: false,
     }),
   detail: (id: string) =>
     queryOptions({
       queryKey: devMailKeys.detail(id),
       queryFn: async ({ signal }) =>
-        (await api.get<{ message: DevMailMessage }>(`/dev/mail/${encodeURIComponent(id)}`, signal))
-          .message,
+        (await api.get<{ message: DevMailMessage }>(`/dev/mail/${encodeURIComponent(id)}`, signal)).message,
       retry: false,
     }),
 };
