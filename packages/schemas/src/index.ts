@@ -1,2 +1,3 @@
 export * from './limits';
 export * from './auth';
+export * from './cultures';

@@ -1,2 +1,3 @@
 export * from './users';
 export * from './clubs';
+export * from './cultures';
