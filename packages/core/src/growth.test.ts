@@ -80,6 +80,12 @@ describe('growStarter', () => {
     expect(starterHours('stir', 50e6)).toBeGreaterThanOrEqual(18); // source: reference §7, stir plate 18–36 h [CP]
     expect(starterHours('stir', 50e6)).toBeLessThanOrEqual(36); // source: reference §7 [CP]
   });
+  it('caps one step at 100-fold growth', () => {
+    const r = growStarter({ startCells: 1e7, viability: 1, volumeL: 0.05, plato: 5, agitation: 'stir' });
+    // source: reference §6c — 10⁷ cells in 50 mL at 1.020 would give ~360×; cap displayed growth per step [CP]
+    expect(r.endCells / 1e7).toBeLessThanOrEqual(100);
+    expect(r.warnings.join(' ')).toMatch(/capped/);
+  });
   it('rejects bad input', () => {
     expect(() => growStarter({ startCells: 1e9, viability: 2, volumeL: 1, plato: 10, agitation: 'stir' })).toThrow(RangeError); // common practice
     expect(() => growStarter({ startCells: 1e9, viability: 1, volumeL: 0, plato: 10, agitation: 'stir' })).toThrow(RangeError); // common practice

@@ -11,6 +11,7 @@
  * Shaken: 0.75 × stirred, the middle of the 0.5–1.0 range practitioners report [CP].
  * Still: 0.36 × stirred, fitted to White & Zainasheff, Yeast (2010) fig. 5.5 (unstirred, 100 B into
  * 0.5–4 L) [PUB-2] at 9 °P; reproduces its totals within 6%.
+ * Cap: at most 100-fold growth in one step [CP].
  * Density check: above 200 million cells per mL, the top of wort propagation yields (Escarpment Labs,
  * "Best Practices – Yeast Propagation": 100–200 M/mL [PUB]), a warning is raised. It is not a hard
  * cap, because Troester's own stirred figures reach about 245 M/mL (100 B into 1 L at 10 °P).
@@ -31,6 +32,13 @@ export const AGITATION_FACTORS: Readonly<Record<Agitation, { factor: number; sou
 
 /** Density above which growStarter warns, cells per mL of starter (Escarpment Labs [PUB]). */
 export const MAX_STARTER_CELLS_PER_ML = 200e6;
+
+/**
+ * Most growth credited to one step, as a multiple of the viable cells pitched [CP]. At very low
+ * inoculation the per-gram model promises hundreds-fold growth; real results are held back by
+ * viability and lag, so the figure is capped (reference §6c).
+ */
+export const MAX_GROWTH_FACTOR_PER_STEP = 100;
 
 /** Below this viable density a tiny start may not take hold [CP]: half the ~1 M/mL bottle-conditioning dose. */
 export const MIN_INOCULATION_CELLS_PER_ML = 0.5e6;
@@ -70,7 +78,9 @@ export function grownViableCells(
 ): number {
   if (extractG <= 0 || volumeL <= 0) return viableCells;
   const perGram = troesterGrowthPerGram(viableCells / 1e9 / extractG) * agitationFactor;
-  return viableCells + perGram * extractG * 1e9;
+  const grown = viableCells + perGram * extractG * 1e9;
+  const cap = viableCells * MAX_GROWTH_FACTOR_PER_STEP;
+  return grown < cap ? grown : cap;
 }
 
 export interface GrowStarterInput {
@@ -130,7 +140,9 @@ export function growStarter(input: GrowStarterInput): GrowStarterResult {
   if (viable > 0 && inoculationCellsPerMl < MIN_INOCULATION_CELLS_PER_ML) {
     warnings.push('Fewer than 0.5 million viable cells per mL: the culture may not take hold; use less wort.');
   }
-  if (viable > 0 && endCells / viable > 50) {
+  if (viable > 0 && endCells >= viable * MAX_GROWTH_FACTOR_PER_STEP) {
+    warnings.push('Growth capped at 100-fold for one step: the model would promise more, but tiny starts lag.');
+  } else if (viable > 0 && endCells / viable > 50) {
     warnings.push('More than 50-fold growth is outside the data behind this model: expect fewer cells and a long lag.');
   }
   if (plato < 4 || plato > 15) {
