@@ -14,12 +14,20 @@ let sink = 0;
 const options = { time: 2000, warmupTime: 500 };
 
 describe('planner vs one growth step', () => {
-  bench('planStepUp (dregs 5e7 → 2e11, 6 vessels)', () => {
-    sink += planStepUp(dregs).finalCells;
-  }, options);
-  bench('growStarter (one step)', () => {
-    sink += growStarter({ startCells: 5e7, viability: 1, volumeL: 0.05, plato: 5.6, agitation: 'stir' }).endCells;
-  }, options);
+  bench(
+    'planStepUp (dregs 5e7 → 2e11, 6 vessels)',
+    () => {
+      sink += planStepUp(dregs).finalCells;
+    },
+    options,
+  );
+  bench(
+    'growStarter (one step)',
+    () => {
+      sink += growStarter({ startCells: 5e7, viability: 1, volumeL: 0.05, plato: 5.6, agitation: 'stir' }).endCells;
+    },
+    options,
+  );
 });
 
 export { sink };

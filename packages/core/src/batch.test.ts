@@ -38,10 +38,14 @@ describe('attenuation', () => {
   it('real attenuation is 0.8192 × apparent (°P)', () => {
     // source: reference §8b, RA = 0.8192 × AA(°P) with the Balling real extract [CALC]
     fc.assert(
-      fc.property(fc.double({ min: 1.02, max: 1.12, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true }), (og, f) => {
-        const fg = 1 + (og - 1) * f;
-        expect(realAttenuation({ og, fg })).toBeCloseTo(0.8192 * apparentAttenuationPlato({ og, fg }), 9);
-      }),
+      fc.property(
+        fc.double({ min: 1.02, max: 1.12, noNaN: true }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        (og, f) => {
+          const fg = 1 + (og - 1) * f;
+          expect(realAttenuation({ og, fg })).toBeCloseTo(0.8192 * apparentAttenuationPlato({ og, fg }), 9);
+        },
+      ),
     );
   });
 });

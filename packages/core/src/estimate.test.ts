@@ -36,7 +36,11 @@ describe('estimateCells', () => {
     expect(e.low).toBeLessThanOrEqual(59e9); // source: White Labs QC sheet example on HomebrewTalk [PUB-2]
   });
   it('a two-month-old pack holds about 64 B live cells', () => {
-    const e = estimateCells({ form: 'liquid_pack', madeOrHarvestedAt: made, at: new Date(made.getTime() + 60.88 * DAY) });
+    const e = estimateCells({
+      form: 'liquid_pack',
+      madeOrHarvestedAt: made,
+      at: new Date(made.getTime() + 60.88 * DAY),
+    });
     expect(e.viableCells / 1e9).toBeCloseTo(64, 0); // source: reference §5a exponential 20%/month [CALC]
     expect(e.basis).toMatch(/projected/);
   });

@@ -11,8 +11,7 @@ export const LIQUID_PACK_CELLS = {
     cells: 100e9,
     low: 59e9,
     high: 150e9,
-    source:
-      'about 100 billion per pack [CP]; a QC sheet at 59 billion [PUB-2]; up to about 150 billion [CP]',
+    source: 'about 100 billion per pack [CP]; a QC sheet at 59 billion [PUB-2]; up to about 150 billion [CP]',
   },
   small: { cells: 30e9, low: 25e9, high: 35e9, source: 'smaller "propagator" pack 25–35 billion [PUB-2]' },
 } as const;

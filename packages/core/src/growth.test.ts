@@ -15,11 +15,23 @@ describe('stirred starter (Troester)', () => {
     expect(rel(r.inoculationRate, 0.962)).toBeLessThan(0.01); // source: reference §6a, I = 0.962 B/g [CALC]
   });
   it('200 B into 100 g of extract → about 299 B', () => {
-    const r = growStarter({ startCells: 200e9, viability: 1, volumeL: volumeForGrams(100, 10), plato: 10, agitation: 'stir' });
+    const r = growStarter({
+      startCells: 200e9,
+      viability: 1,
+      volumeL: volumeForGrams(100, 10),
+      plato: 10,
+      agitation: 'stir',
+    });
     expect(rel(r.endCells, 299e9)).toBeLessThan(0.1); // source: reference §6a [CALC]
   });
   it('350 B into 100 g of extract → no growth', () => {
-    const r = growStarter({ startCells: 350e9, viability: 1, volumeL: volumeForGrams(100, 10), plato: 10, agitation: 'stir' });
+    const r = growStarter({
+      startCells: 350e9,
+      viability: 1,
+      volumeL: volumeForGrams(100, 10),
+      plato: 10,
+      agitation: 'stir',
+    });
     expect(r.newCells).toBeLessThan(0.1 * 350e9 * 0.1); // source: reference §6a, I = 3.5 → 0 [CALC]
   });
   it('50 B into 1 L at 10 °P → about 195.6 B (growth independent of start count)', () => {
@@ -87,8 +99,12 @@ describe('growStarter', () => {
     expect(r.warnings.join(' ')).toMatch(/capped/);
   });
   it('rejects bad input', () => {
-    expect(() => growStarter({ startCells: 1e9, viability: 2, volumeL: 1, plato: 10, agitation: 'stir' })).toThrow(RangeError); // common practice
-    expect(() => growStarter({ startCells: 1e9, viability: 1, volumeL: 0, plato: 10, agitation: 'stir' })).toThrow(RangeError); // common practice
+    expect(() => growStarter({ startCells: 1e9, viability: 2, volumeL: 1, plato: 10, agitation: 'stir' })).toThrow(
+      RangeError,
+    ); // common practice
+    expect(() => growStarter({ startCells: 1e9, viability: 1, volumeL: 0, plato: 10, agitation: 'stir' })).toThrow(
+      RangeError,
+    ); // common practice
   });
 
   const input = fc.record({
@@ -105,7 +121,9 @@ describe('growStarter', () => {
       fc.property(input, fc.double({ min: 1, max: 5, noNaN: true }), (x, more) => {
         const base = growStarter(x).endCells;
         expect(growStarter({ ...x, volumeL: x.volumeL * more }).endCells).toBeGreaterThanOrEqual(base * (1 - 1e-12));
-        expect(growStarter({ ...x, plato: Math.min(30, x.plato * more) }).endCells).toBeGreaterThanOrEqual(base * (1 - 1e-12));
+        expect(growStarter({ ...x, plato: Math.min(30, x.plato * more) }).endCells).toBeGreaterThanOrEqual(
+          base * (1 - 1e-12),
+        );
       }),
       { numRuns: 300 },
     );

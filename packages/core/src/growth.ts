@@ -22,7 +22,10 @@ export type Agitation = 'stir' | 'shake' | 'still';
 export const AGITATIONS = ['stir', 'shake', 'still'] as const satisfies readonly Agitation[];
 
 export const AGITATION_FACTORS: Readonly<Record<Agitation, { factor: number; source: string }>> = {
-  stir: { factor: 1, source: 'K. Troester, "Estimating yeast growth", braukaiser.com (2012) [PUB]; coefficients [MEM]' },
+  stir: {
+    factor: 1,
+    source: 'K. Troester, "Estimating yeast growth", braukaiser.com (2012) [PUB]; coefficients [MEM]',
+  },
   shake: { factor: 0.75, source: 'middle of the 0.5–1.0 × stirred range practitioners report [CP]' },
   still: {
     factor: 0.36,

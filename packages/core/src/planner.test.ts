@@ -98,7 +98,13 @@ describe('planStepUp: other cases', () => {
     expect(p.steps[0]!.hours).toBeLessThanOrEqual(36); // source: reference §7, stir plate 18–36 h [CP]
   });
   it('says why and how close when vessels are too small', () => {
-    const p = planStepUp({ startCells: 5e7, viability: 1, targetCells: 2e11, agitation: 'stir', vessels: [0.05, 0.25] });
+    const p = planStepUp({
+      startCells: 5e7,
+      viability: 1,
+      targetCells: 2e11,
+      agitation: 'stir',
+      vessels: [0.05, 0.25],
+    });
     expect(p.feasible).toBe(false); // common practice: 250 mL cannot hold 200 B at sane density
     expect(p.reason).toMatch(/% of target/);
     expect(p.steps.length).toBeGreaterThan(0);
@@ -111,21 +117,45 @@ describe('planStepUp: other cases', () => {
     expect(p.reason).toMatch(/smallest vessel/);
   });
   it('honours a tighter step factor and a minimum final volume', () => {
-    const p = planStepUp({ startCells: 5e7, viability: 1, targetCells: 2e11, agitation: 'stir', vessels: VESSELS, maxStepFactor: 4 });
-    for (let i = 1; i < p.steps.length; i++) expect(p.steps[i]!.volumeL / p.steps[i - 1]!.volumeL).toBeLessThanOrEqual(4 + 1e-9); // source: German schools 4-fold (Raines-Casselman) [PUB-2]
-    const q = planStepUp({ startCells: 100e9, viability: 1, targetCells: 150e9, agitation: 'stir', vessels: VESSELS, minFinalVolume: 2 });
+    const p = planStepUp({
+      startCells: 5e7,
+      viability: 1,
+      targetCells: 2e11,
+      agitation: 'stir',
+      vessels: VESSELS,
+      maxStepFactor: 4,
+    });
+    for (let i = 1; i < p.steps.length; i++)
+      expect(p.steps[i]!.volumeL / p.steps[i - 1]!.volumeL).toBeLessThanOrEqual(4 + 1e-9); // source: German schools 4-fold (Raines-Casselman) [PUB-2]
+    const q = planStepUp({
+      startCells: 100e9,
+      viability: 1,
+      targetCells: 150e9,
+      agitation: 'stir',
+      vessels: VESSELS,
+      minFinalVolume: 2,
+    });
     expect(q.steps[q.steps.length - 1]!.volumeL).toBeGreaterThanOrEqual(2); // source: issue 3 requirement (minFinalVolume)
   });
   it('still starters need at least as many steps as stirred', () => {
     // source: reference §6b–c, still yields less than stirred [PUB-2]/[CP]
     const stir = planStepUp({ startCells: 5e7, viability: 1, targetCells: 2e11, agitation: 'stir', vessels: VESSELS });
-    const still = planStepUp({ startCells: 5e7, viability: 1, targetCells: 2e11, agitation: 'still', vessels: VESSELS });
+    const still = planStepUp({
+      startCells: 5e7,
+      viability: 1,
+      targetCells: 2e11,
+      agitation: 'still',
+      vessels: VESSELS,
+    });
     expect(still.steps.length).toBeGreaterThanOrEqual(stir.steps.length);
   });
 });
 
 describe('planStepUp properties', () => {
-  const vessels = fc.uniqueArray(fc.constantFrom(0.02, 0.05, 0.1, 0.25, 0.5, 1, 1.5, 2, 3, 4, 5), { minLength: 1, maxLength: 6 });
+  const vessels = fc.uniqueArray(fc.constantFrom(0.02, 0.05, 0.1, 0.25, 0.5, 1, 1.5, 2, 3, 4, 5), {
+    minLength: 1,
+    maxLength: 6,
+  });
   const input = fc.record({
     startCells: fc.double({ min: 1e7, max: 5e11, noNaN: true }),
     viability: fc.double({ min: 0.2, max: 1, noNaN: true }),

@@ -24,7 +24,12 @@ describe('liquid pack', () => {
     expect(liquidPackViability(6 * MONTH, 4).viability).toBeCloseTo(0.262, 3); // source: reference §5a check values [CALC]
   });
   it('lands in the makers’ 75–85% after 30 days', () => {
-    const v = projectViability({ form: 'liquid_pack', madeOrHarvestedAt: made, at: after(30), storageTempC: 4 }).viability;
+    const v = projectViability({
+      form: 'liquid_pack',
+      madeOrHarvestedAt: made,
+      at: after(30),
+      storageTempC: 4,
+    }).viability;
     expect(v).toBeGreaterThanOrEqual(0.75); // source: White Labs FAQ "75–85% after 30 days" [PUB-2]
     expect(v).toBeLessThanOrEqual(0.85); // source: White Labs FAQ [PUB-2]
   });
@@ -35,7 +40,13 @@ describe('liquid pack', () => {
     expect(liquidPackViabilityLinear(60, 4).viability * 100e9).toBeCloseTo(58e9, -8); // source: reference §5a [CALC]
     expect(liquidPackViabilityLinear(143, 4).viability).toBeLessThan(0.002); // source: reference §5a, zero at about 143 days [CP]
     expect(
-      projectViability({ form: 'liquid_pack', madeOrHarvestedAt: made, at: after(60), storageTempC: 4, liquidModel: 'linear' }).model,
+      projectViability({
+        form: 'liquid_pack',
+        madeOrHarvestedAt: made,
+        at: after(60),
+        storageTempC: 4,
+        liquidModel: 'linear',
+      }).model,
     ).toMatch(/linear/); // common practice: the named alternative is selectable
   });
   it('flags warm storage and great age', () => {
@@ -72,13 +83,25 @@ describe('slurry', () => {
 
 describe('frozen glycerol stock', () => {
   it('hardly changes in a year at −80 °C but fades at −20 °C', () => {
-    const deep = projectViability({ form: 'frozen_glycerol', madeOrHarvestedAt: made, at: after(365), storageTempC: -80 });
-    const home = projectViability({ form: 'frozen_glycerol', madeOrHarvestedAt: made, at: after(365), storageTempC: -20 });
+    const deep = projectViability({
+      form: 'frozen_glycerol',
+      madeOrHarvestedAt: made,
+      at: after(365),
+      storageTempC: -80,
+    });
+    const home = projectViability({
+      form: 'frozen_glycerol',
+      madeOrHarvestedAt: made,
+      at: after(365),
+      storageTempC: -20,
+    });
     expect(deep.viability / deep.startViability).toBeGreaterThan(0.97); // source: Grosshans lab, indefinite at ≤ −60 °C [PUB]
     expect(home.viability / home.startViability).toBeLessThan(0.7); // source: Folia Microbiol. 54:230 (2009), −20 °C is poor [PUB]
   });
   it('is out of range when not frozen', () => {
-    expect(projectViability({ form: 'frozen_glycerol', madeOrHarvestedAt: made, at: after(5), storageTempC: 4 }).outOfRange).toBe(true); // source: model range ≤ −15 °C [CP]
+    expect(
+      projectViability({ form: 'frozen_glycerol', madeOrHarvestedAt: made, at: after(5), storageTempC: 4 }).outOfRange,
+    ).toBe(true); // source: model range ≤ −15 °C [CP]
   });
 });
 
@@ -107,7 +130,12 @@ describe('projectViability, every form', () => {
         fc.option(fc.double({ min: 0, max: 1, noNaN: true }), { nil: undefined }),
         (form, d1, d2, tempC, warmer, startViability) => {
           const [a, b] = d1 <= d2 ? [d1, d2] : [d2, d1];
-          const base = { form, madeOrHarvestedAt: made, storageTempC: tempC, ...(startViability === undefined ? {} : { startViability }) };
+          const base = {
+            form,
+            madeOrHarvestedAt: made,
+            storageTempC: tempC,
+            ...(startViability === undefined ? {} : { startViability }),
+          };
           const va = projectViability({ ...base, at: after(a) }).viability;
           const vb = projectViability({ ...base, at: after(b) }).viability;
           const vw = projectViability({ ...base, storageTempC: tempC + warmer, at: after(b) }).viability;
@@ -123,9 +151,9 @@ describe('projectViability, every form', () => {
     );
   });
   it('rejects a start viability above 1', () => {
-    expect(() => projectViability({ form: 'plate', madeOrHarvestedAt: made, at: after(1), storageTempC: 4, startViability: 1.2 })).toThrow(
-      RangeError,
-    ); // common practice: a fraction
+    expect(() =>
+      projectViability({ form: 'plate', madeOrHarvestedAt: made, at: after(1), storageTempC: 4, startViability: 1.2 }),
+    ).toThrow(RangeError); // common practice: a fraction
   });
 });
 
@@ -147,12 +175,17 @@ describe('maxStorageDays', () => {
   it('warmer never allows longer storage', () => {
     // common practice: warm storage shortens every limit
     fc.assert(
-      fc.property(fc.constantFrom<CultureForm>(...CULTURE_FORMS), fc.double({ min: -100, max: 40, noNaN: true }), fc.double({ min: 0, max: 20, noNaN: true }), (form, t, dt) => {
-        const cold = maxStorageDays(form, t);
-        expect(cold.days).toBeGreaterThanOrEqual(0);
-        expect(cold.source).toMatch(/\[(PUB|PUB-2|CP|MEM)\]/);
-        expect(maxStorageDays(form, t + dt).days).toBeLessThanOrEqual(cold.days);
-      }),
+      fc.property(
+        fc.constantFrom<CultureForm>(...CULTURE_FORMS),
+        fc.double({ min: -100, max: 40, noNaN: true }),
+        fc.double({ min: 0, max: 20, noNaN: true }),
+        (form, t, dt) => {
+          const cold = maxStorageDays(form, t);
+          expect(cold.days).toBeGreaterThanOrEqual(0);
+          expect(cold.source).toMatch(/\[(PUB|PUB-2|CP|MEM)\]/);
+          expect(maxStorageDays(form, t + dt).days).toBeLessThanOrEqual(cold.days);
+        },
+      ),
     );
   });
 });

@@ -119,7 +119,8 @@ export const DRY_PACK_MODEL: DecayModel = {
 export const SLURRY_UNWASHED_MODEL: DecayModel = {
   form: 'slurry_unwashed',
   model: 'slurry under beer, 2%/week',
-  source: 'default 1–3%/week at 1–4 °C [CP]; storage under beer 0.5–3.3 °C: C. White, "Yeast Storage and Maintenance" [PUB]',
+  source:
+    'default 1–3%/week at 1–4 °C [CP]; storage under beer 0.5–3.3 °C: C. White, "Yeast Storage and Maintenance" [PUB]',
   startViability: 0.9,
   startSource: 'about 90% for beers under 6% ABV: Woodland Brewing Research, "Yeast Storage" [PUB]',
   kRefPerDay: ratePerDay(0.02, 7),
@@ -219,7 +220,8 @@ export const PLATE_MODEL: DecayModel = {
 export const FROZEN_GLYCEROL_MODEL: DecayModel = {
   form: 'frozen_glycerol',
   model: 'glycerol stock, 2%/year at −80 °C rising to 4%/month at −20 °C',
-  source: '2%/year at −80 °C and 4%/month at −20 °C [CP]; Grosshans lab "Yeast stocks" [PUB]; Folia Microbiol. 54(3):230 (2009) [PUB]',
+  source:
+    '2%/year at −80 °C and 4%/month at −20 °C [CP]; Grosshans lab "Yeast stocks" [PUB]; Folia Microbiol. 54(3):230 (2009) [PUB]',
   startViability: 0.6,
   startSource: 'survival of freezing about 60% [MEM]',
   kRefPerDay: ratePerDay(0.02, DAYS_PER_YEAR),

@@ -33,10 +33,14 @@ describe('malt extract for starters', () => {
   it('is the inverse of sgFromExtract', () => {
     // common practice: grams and gravity from the same PPG figure
     fc.assert(
-      fc.property(fc.double({ min: 0.01, max: 20, noNaN: true }), fc.double({ min: 1, max: 25, noNaN: true }), (volumeL, plato) => {
-        const grams = dmeForStarter({ volumeL, plato });
-        expect(platoFromSg(sgFromExtract({ grams, volumeL }))).toBeCloseTo(plato, 6);
-      }),
+      fc.property(
+        fc.double({ min: 0.01, max: 20, noNaN: true }),
+        fc.double({ min: 1, max: 25, noNaN: true }),
+        (volumeL, plato) => {
+          const grams = dmeForStarter({ volumeL, plato });
+          expect(platoFromSg(sgFromExtract({ grams, volumeL }))).toBeCloseTo(plato, 6);
+        },
+      ),
     );
   });
 
