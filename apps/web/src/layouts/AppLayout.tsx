@@ -12,6 +12,42 @@ const navItems = [
   { to: '/account', label: 'Account', end: false },
 ] as const;
 
+function MainNav({ className }: { className?: string }) {
+  return (
+    <nav aria-label="Main" className={className}>
+      <ul className="flex gap-1">
+        {navItems.map((item) => (
+          <li key={item.to}>
+            <NavLink
+              to={item.to}
+              end={item.end}
+              className={({ isActive }) =>
+                cx(
+                  'inline-flex min-h-11 items-center rounded-md px-3 font-medium',
+                  isActive
+                    ? 'bg-accent-soft text-accent-strong underline decoration-2 underline-offset-6'
+                    : 'text-ink-muted hover:bg-paper-sunk hover:text-ink',
+                )
+              }
+            >
+              {item.label}
+            </NavLink>
+          </li>
+        ))}
+      </ul>
+    </nav>
+  );
+}
+
+function PersonName({ name, email, className }: { name: string; email: string; className?: string }) {
+  return (
+    <span className={cx('min-w-0 truncate text-sm text-ink-muted', className)} title={email}>
+      <span className="sr-only">Signed in as </span>
+      {name}
+    </span>
+  );
+}
+
 /** The signed-in shell: header with navigation, the person's name and sign-out. */
 export function Component() {
   const { data: user } = useQuery(authQueries.me());
@@ -35,45 +71,28 @@ export function Component() {
         Skip to content
       </a>
       <header className="border-b border-rule bg-paper-raised/60">
-        <div className="mx-auto flex max-w-4xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
-          <Brand />
-          <nav aria-label="Main" className="order-last w-full sm:order-none sm:w-auto">
-            <ul className="flex gap-1">
-              {navItems.map((item) => (
-                <li key={item.to}>
-                  <NavLink
-                    to={item.to}
-                    end={item.end}
-                    className={({ isActive }) =>
-                      cx(
-                        'inline-flex min-h-11 items-center rounded-md px-3 font-medium',
-                        isActive
-                          ? 'bg-accent-soft text-accent-strong underline decoration-2 underline-offset-6'
-                          : 'text-ink-muted hover:bg-paper-sunk hover:text-ink',
-                      )
-                    }
-                  >
-                    {item.label}
-                  </NavLink>
-                </li>
-              ))}
-            </ul>
-          </nav>
-          <div className="ml-auto flex min-w-0 items-center gap-2">
-            <span className="truncate text-sm text-ink-muted" title={user.email}>
-              <span className="sr-only">Signed in as </span>
-              {user.name}
-            </span>
-            <Button
-              variant="secondary"
-              className="min-h-10 px-3 text-sm"
-              icon={<LogOut aria-hidden className="size-4" />}
-              busy={signOut.isPending}
-              busyLabel="Signing out…"
-              onClick={() => signOut.mutate()}
-            >
-              Sign out
-            </Button>
+        <div className="mx-auto max-w-4xl px-4">
+          <div className="flex items-center gap-6 py-3">
+            <Brand />
+            <MainNav className="hidden sm:block" />
+            <div className="ml-auto flex min-w-0 items-center gap-3">
+              <PersonName name={user.name} email={user.email} className="hidden sm:inline" />
+              <Button
+                variant="secondary"
+                className="min-h-10 px-3 text-sm"
+                icon={<LogOut aria-hidden className="size-4" />}
+                busy={signOut.isPending}
+                busyLabel="Signing out…"
+                onClick={() => signOut.mutate()}
+              >
+                Sign out
+              </Button>
+            </div>
+          </div>
+          {/* On phones the navigation and the name get a row of their own. */}
+          <div className="flex items-center justify-between gap-3 pb-2 sm:hidden">
+            <MainNav />
+            <PersonName name={user.name} email={user.email} />
           </div>
         </div>
       </header>

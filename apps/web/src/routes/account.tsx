@@ -66,7 +66,7 @@ function AccountForm({ user }: { user: UserDto }) {
     setValue,
     reset,
     control,
-    formState: { errors, isSubmitting, isDirty, isSubmitSuccessful },
+    formState: { errors, isSubmitting, isDirty },
   } = useForm({
     resolver: zodResolver(AccountFormSchema),
     defaultValues: {
@@ -82,36 +82,21 @@ function AccountForm({ user }: { user: UserDto }) {
   const onSubmit = handleSubmit(async (values) => {
     try {
       const { user: saved } = await updateAccount.mutateAsync(values);
-      reset(
-        {
-          name: saved.name,
-          unitSystem: saved.unitSystem,
-          temperatureUnit: saved.temperatureUnit,
-          gravityUnit: saved.gravityUnit,
-          timeZone: saved.timeZone,
-        },
-        { keepIsSubmitSuccessful: true },
-      );
+      reset({
+        name: saved.name,
+        unitSystem: saved.unitSystem,
+        temperatureUnit: saved.temperatureUnit,
+        gravityUnit: saved.gravityUnit,
+        timeZone: saved.timeZone,
+      });
     } catch (error) {
       applyApiError(error, setError, ['name', 'unitSystem', 'temperatureUnit', 'gravityUnit', 'timeZone']);
-      throw error; // keeps isSubmitSuccessful false
     }
   });
 
   return (
-    <form
-      onSubmit={(event) => {
-        onSubmit(event).catch(() => undefined);
-      }}
-      noValidate
-      className="space-y-6"
-    >
+    <form onSubmit={onSubmit} noValidate className="space-y-6">
       <FormAlert message={errors.root?.server?.message} />
-      {isSubmitSuccessful && !isDirty ? (
-        <Notice tone="success" live="polite" word="Saved">
-          Your settings are updated.
-        </Notice>
-      ) : null}
 
       <Card className="space-y-4">
         <h2 className="text-lg font-semibold">Profile</h2>
@@ -175,11 +160,17 @@ function AccountForm({ user }: { user: UserDto }) {
         ) : null}
       </Card>
 
-      <div className="flex flex-wrap items-center gap-3">
+      <div className="space-y-3">
         <Button type="submit" busy={isSubmitting} busyLabel="Saving…">
           Save changes
         </Button>
-        {isDirty ? <span className="text-sm text-ink-muted">You have unsaved changes.</span> : null}
+        {isDirty ? (
+          <p className="text-sm text-ink-muted">You have unsaved changes.</p>
+        ) : updateAccount.isSuccess ? (
+          <Notice tone="success" live="polite" word="Saved">
+            Your settings are updated.
+          </Notice>
+        ) : null}
       </div>
     </form>
   );

@@ -55,15 +55,15 @@ export function Component() {
                 data-message-id={message.id}
               >
                 <Mail aria-hidden className="mt-1 size-4 shrink-0 text-accent" />
-                <span className="min-w-0 flex-1">
-                  <span className="block font-medium text-accent underline-offset-4">
-                    {message.subject || '(no subject)'}
+                <span className="flex min-w-0 flex-1 flex-col gap-0.5 sm:flex-row sm:items-baseline sm:justify-between sm:gap-4">
+                  <span className="min-w-0">
+                    <span className="block font-medium text-accent">{message.subject || '(no subject)'}</span>
+                    <span className="block truncate text-sm text-ink-muted">To {recipients(message)}</span>
                   </span>
-                  <span className="block truncate text-sm text-ink-muted">To {recipients(message)}</span>
+                  <time dateTime={message.receivedAt} className="num shrink-0 text-sm text-ink-muted">
+                    {formatDateTime(message.receivedAt)}
+                  </time>
                 </span>
-                <time dateTime={message.receivedAt} className="num shrink-0 text-sm text-ink-muted">
-                  {formatDateTime(message.receivedAt)}
-                </time>
               </Link>
             </li>
           ))}
