@@ -19,6 +19,9 @@ import { accountRouter } from './routes/account/account';
 import { devMailRouter } from './routes/dev/devMail';
 import { healthRouter } from './routes/health/health';
 import { adminRouter } from './routes/admin/admin';
+import { clubsRouter } from './routes/clubs/clubs';
+import { invitationsRouter } from './routes/invitations/invitations';
+import { culturesRouter } from './routes/cultures/cultures';
 
 export interface AppDeps {
   env: Env;
@@ -75,6 +78,9 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   api.use('/auth', authRouter(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT }));
   api.use('/account', accountRouter(ctx));
   api.use('/admin', adminRouter(ctx));
+  api.use('/clubs', clubsRouter(ctx));
+  api.use('/invitations', invitationsRouter(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT }));
+  api.use('/cultures', culturesRouter(ctx));
   if (deps.inbox) api.use('/dev/mail', devMailRouter(deps.inbox));
   api.use(apiNotFound);
   app.use('/api', api);

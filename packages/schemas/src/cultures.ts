@@ -188,13 +188,12 @@ export type CultureOriginDetails = CultureOriginDetailsData extends infer U ? (U
 const tagsField = z
   .array(z.string().trim().min(1, 'Tags cannot be empty').max(cultureLimits.tagMax, `Tags are at most ${cultureLimits.tagMax} characters`))
   .max(cultureLimits.tagsMax, `At most ${cultureLimits.tagsMax} tags`)
-  .default([])
   .transform((tags) => [...new Set(tags.map((t) => t.toLowerCase()))]);
 
 const cultureCreateObject = z.object({
   strainName: label('a strain name', cultureLimits.strainMax),
   species: optionalText(cultureLimits.speciesMax),
-  tags: tagsField,
+  tags: tagsField.default([]),
   form: z.enum(CULTURE_FORMS, { error: 'Choose what form the yeast is in' }),
   origin: CultureOriginDetailsSchema,
   parentId: z.string().trim().min(1).max(64).optional(),
@@ -396,8 +395,10 @@ export type CultureEventCreateInput = z.input<typeof CultureEventCreateSchema>;
 export type CultureEventCreateData = z.output<typeof CultureEventCreateSchema>;
 
 export const CultureStateChangeSchema = z.object({
-  state: z.enum(CULTURE_STATES),
+  state: z.enum(CULTURE_STATES, { error: 'Choose a state' }),
   notes: notesField,
+  /** lift the contamination flag (after checking the culture) */
+  clearSuspect: z.boolean().default(false),
 });
 export type CultureStateChangeInput = z.input<typeof CultureStateChangeSchema>;
 

@@ -1,0 +1,297 @@
+import { and, asc, desc, eq, gte, ilike, inArray, lte, or, sql, type SQL } from 'drizzle-orm';
+import type { CultureState, CultureForm, CultureSort } from '@barmkeep/schemas';
+import type { Db } from '../client';
+import { cultureEvents, cultures, users, type CultureEventRow, type CultureInsert, type CultureRow } from '../schema';
+
+type Executor = Pick<Db, 'select' | 'insert' | 'update' | 'execute' | 'delete'>;
+
+export async function insertCultures(db: Executor, values: CultureInsert[]): Promise<CultureRow[]> {
+  if (values.length === 0) return [];
+  return db.insert(cultures).values(values).returning();
+}
+
+export async function findCultureById(db: Executor, id: string): Promise<CultureRow | undefined> {
+  const [row] = await db.select().from(cultures).where(eq(cultures.id, id)).limit(1);
+  return row;
+}
+
+/** Locks the row for the rest of the transaction (state changes and events on one culture queue up). */
+export async function findCultureForUpdate(db: Executor, id: string): Promise<CultureRow | undefined> {
+  const [row] = await db.select().from(cultures).where(eq(cultures.id, id)).limit(1).for('update');
+  return row;
+}
+
+export async function findCulturesByIds(db: Executor, ids: string[]): Promise<CultureRow[]> {
+  if (ids.length === 0) return [];
+  return db.select().from(cultures).where(inArray(cultures.id, ids));
+}
+
+export async function updateCultureRow(
+  db: Executor,
+  id: string,
+  values: Partial<Omit<CultureInsert, 'id' | 'ownerUserId' | 'createdAt'>>,
+): Promise<CultureRow | undefined> {
+  const [row] = await db
+    .update(cultures)
+    .set({ ...values, updatedAt: new Date() })
+    .where(eq(cultures.id, id))
+    .returning();
+  return row;
+}
+
+export interface CultureListFilter {
+  /** the access predicate from services/cultureAccess.ts */
+  visible: SQL;
+  q?: string;
+  states?: CultureState[];
+  forms?: CultureForm[];
+  strain?: string;
+  tag?: string;
+  madeAfter?: Date;
+  madeBefore?: Date;
+}
+
+const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+function listWhere(f: CultureListFilter): SQL {
+  const parts: (SQL | undefined)[] = [f.visible];
+  if (f.states?.length) parts.push(inArray(cultures.state, f.states));
+  if (f.forms?.length) parts.push(inArray(cultures.form, f.forms));
+  if (f.strain) parts.push(ilike(cultures.strainName, `%${escapeLike(f.strain)}%`));
+  if (f.tag) parts.push(sql`${cultures.tags} @> array[${f.tag.toLowerCase()}]::text[]`);
+  if (f.madeAfter) parts.push(gte(cultures.madeAt, f.madeAfter));
+  if (f.madeBefore) parts.push(lte(cultures.madeAt, f.madeBefore));
+  if (f.q) {
+    const like = `%${escapeLike(f.q)}%`;
+    parts.push(
+      or(
+        ilike(cultures.strainName, like),
+        ilike(cultures.species, like),
+        ilike(cultures.locationLabel, like),
+        ilike(cultures.notes, like),
+        sql`exists (select 1 from unnest(${cultures.tags}) t where t ilike ${like})`,
+      ),
+    );
+  }
+  return and(...parts)!;
+}
+
+const SQL_SORTS: Record<Exclude<CultureSort, 'viability'>, (dir: 'asc' | 'desc') => SQL[]> = {
+  attention: (d) => [
+    d === 'asc' ? sql`${cultures.attentionDueAt} asc nulls last` : sql`${cultures.attentionDueAt} desc nulls last`,
+    asc(cultures.id),
+  ],
+  name: (d) => [d === 'asc' ? sql`lower(${cultures.strainName}) asc` : sql`lower(${cultures.strainName}) desc`, asc(cultures.id)],
+  made: (d) => [d === 'asc' ? asc(cultures.madeAt) : desc(cultures.madeAt), asc(cultures.id)],
+  generation: (d) => [d === 'asc' ? asc(cultures.generation) : desc(cultures.generation), asc(cultures.id)],
+  state: (d) => [d === 'asc' ? asc(cultures.state) : desc(cultures.state), asc(cultures.id)],
+  form: (d) => [d === 'asc' ? asc(cultures.form) : desc(cultures.form), asc(cultures.id)],
+};
+
+/** One page of cultures and the total, in one round trip (`count(*) over ()`). */
+export async function listCulturesPage(
+  db: Executor,
+  f: CultureListFilter,
+  page: { sort: Exclude<CultureSort, 'viability'>; dir: 'asc' | 'desc'; limit: number; offset: number },
+): Promise<{ rows: CultureRow[]; total: number }> {
+  const rows = await db
+    .select({ culture: cultures, total: sql<number>`count(*) over ()`.mapWith(Number) })
+    .from(cultures)
+    .where(listWhere(f))
+    .orderBy(...SQL_SORTS[page.sort](page.dir))
+    .limit(page.limit)
+    .offset(page.offset);
+  if (rows.length === 0 && page.offset > 0) {
+    const [c] = await db.select({ n: sql<number>`count(*)`.mapWith(Number) }).from(cultures).where(listWhere(f));
+    return { rows: [], total: c?.n ?? 0 };
+  }
+  return { rows: rows.map((r) => r.culture), total: rows[0]?.total ?? 0 };
+}
+
+/** The few columns a viability projection needs, for every culture matching the filter. */
+export async function listCultureProjectionInputs(db: Executor, f: CultureListFilter) {
+  return db
+    .select({
+      id: cultures.id,
+      form: cultures.form,
+      madeAt: cultures.madeAt,
+      storageTempC: cultures.storageTempC,
+      measuredAt: cultures.measuredAt,
+      measuredViability: cultures.measuredViability,
+    })
+    .from(cultures)
+    .where(listWhere(f));
+}
+
+export async function listAllCultures(db: Executor, visible: SQL): Promise<CultureRow[]> {
+  return db.select().from(cultures).where(visible).orderBy(asc(cultures.createdAt), asc(cultures.id));
+}
+
+export type LineageRow = {
+  id: string;
+  parent_id: string | null;
+  depth: number;
+  strain_name: string;
+  generation: number;
+  state: CultureState;
+  form: CultureForm;
+  suspect: boolean;
+  owner_user_id: string;
+  owner_club_id: string | null;
+  visibility: 'private' | 'club';
+  owner_name: string | null;
+};
+
+/**
+ * The whole lineage a culture belongs to, from its founding culture down, in ONE query: a recursive
+ * CTE climbs to the root, a second one walks every descendant of the root. Depth is from the root.
+ */
+export async function lineageOf(db: Executor, cultureId: string): Promise<LineageRow[]> {
+  const result = await db.execute<LineageRow>(sql`
+    with recursive up as (
+      select id, parent_id, 0 as hops from cultures where id = ${cultureId}
+      union all
+      select c.id, c.parent_id, up.hops + 1 from cultures c join up on c.id = up.parent_id
+      where up.hops < 100000
+    ),
+    root as (select id from up where parent_id is null limit 1),
+    down as (
+      select c.id, c.parent_id, 0 as depth from cultures c where c.id = (select id from root)
+      union all
+      select c.id, c.parent_id, down.depth + 1 from cultures c join down on c.parent_id = down.id
+      where down.depth < 100000
+    )
+    select c.id, c.parent_id, down.depth, c.strain_name, c.generation, c.state, c.form, c.suspect,
+           c.owner_user_id, c.owner_club_id, c.visibility, u.name as owner_name
+    from down
+    join cultures c on c.id = down.id
+    left join users u on u.id = c.owner_user_id
+    order by down.depth, c.made_at, c.id
+  `);
+  return result.rows;
+}
+
+/** Every descendant of a culture (not the culture itself), nearest first. */
+export async function descendantsOf(db: Executor, cultureId: string) {
+  const result = await db.execute<{
+    id: string;
+    parent_id: string;
+    depth: number;
+    strain_name: string;
+    generation: number;
+    state: CultureState;
+    suspect: boolean;
+    owner_user_id: string;
+    owner_club_id: string | null;
+    visibility: 'private' | 'club';
+  }>(sql`
+    with recursive down as (
+      select id, 1 as depth from cultures where parent_id = ${cultureId}
+      union all
+      select c.id, down.depth + 1 from cultures c join down on c.parent_id = down.id
+      where down.depth < 100000
+    )
+    select c.id, c.parent_id, down.depth, c.strain_name, c.generation, c.state, c.suspect,
+           c.owner_user_id, c.owner_club_id, c.visibility
+    from down join cultures c on c.id = down.id
+    order by down.depth, c.made_at, c.id
+  `);
+  return result.rows;
+}
+
+/** Adds `delta` to the generation of a culture and every descendant, in one statement. */
+export async function shiftSubtreeGeneration(db: Executor, cultureId: string, delta: number): Promise<number> {
+  if (delta === 0) return 0;
+  const result = await db.execute(sql`
+    with recursive down as (
+      select id from cultures where id = ${cultureId}
+      union all
+      select c.id from cultures c join down on c.parent_id = down.id
+    )
+    update cultures set generation = generation + ${delta}, updated_at = now()
+    where id in (select id from down)
+  `);
+  return result.rowCount ?? 0;
+}
+
+export async function markSuspect(
+  db: Executor,
+  ids: string[],
+  values: { fromCultureId: string; since: Date },
+): Promise<void> {
+  if (ids.length === 0) return;
+  await db
+    .update(cultures)
+    .set({ suspect: true, suspectFromCultureId: values.fromCultureId, suspectSince: values.since, updatedAt: new Date() })
+    .where(inArray(cultures.id, ids));
+}
+
+// ---------------------------------------------------------------- events
+
+export async function insertEvents(
+  db: Executor,
+  values: (typeof cultureEvents.$inferInsert)[],
+): Promise<CultureEventRow[]> {
+  if (values.length === 0) return [];
+  return db.insert(cultureEvents).values(values).returning();
+}
+
+export async function findEventById(db: Executor, id: string): Promise<CultureEventRow | undefined> {
+  const [row] = await db.select().from(cultureEvents).where(eq(cultureEvents.id, id)).limit(1);
+  return row;
+}
+
+export async function isEventSuperseded(db: Executor, id: string): Promise<boolean> {
+  const [row] = await db
+    .select({ id: cultureEvents.id })
+    .from(cultureEvents)
+    .where(eq(cultureEvents.supersedesEventId, id))
+    .limit(1);
+  return Boolean(row);
+}
+
+export async function listEventsOfCulture(db: Executor, cultureId: string) {
+  const later = sql.raw('later');
+  return db
+    .select({
+      event: cultureEvents,
+      authorName: users.name,
+      supersededBy: sql<string | null>`(select ${later}.id from culture_events ${later} where ${later}.supersedes_event_id = ${cultureEvents.id} limit 1)`,
+    })
+    .from(cultureEvents)
+    .leftJoin(users, eq(users.id, cultureEvents.authorUserId))
+    .where(eq(cultureEvents.cultureId, cultureId))
+    .orderBy(asc(cultureEvents.occurredAt), asc(cultureEvents.recordedAt), asc(cultureEvents.id));
+}
+
+/** Effective (not superseded) count events of a culture, newest first. */
+export async function effectiveCounts(db: Executor, cultureId: string): Promise<CultureEventRow[]> {
+  return db
+    .select()
+    .from(cultureEvents)
+    .where(
+      and(
+        eq(cultureEvents.cultureId, cultureId),
+        eq(cultureEvents.kind, 'counted'),
+        sql`not exists (select 1 from culture_events s where s.supersedes_event_id = ${cultureEvents.id})`,
+      ),
+    )
+    .orderBy(desc(cultureEvents.occurredAt), desc(cultureEvents.recordedAt));
+}
+
+export async function listEventsForCultures(db: Executor, cultureIds: string[]): Promise<CultureEventRow[]> {
+  if (cultureIds.length === 0) return [];
+  return db
+    .select()
+    .from(cultureEvents)
+    .where(inArray(cultureEvents.cultureId, cultureIds))
+    .orderBy(asc(cultureEvents.recordedAt), asc(cultureEvents.id));
+}
+
+export async function findUserNames(db: Executor, ids: string[]): Promise<Map<string, string>> {
+  const unique = [...new Set(ids.filter(Boolean))];
+  if (unique.length === 0) return new Map();
+  const rows = await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, unique));
+  return new Map(rows.map((r) => [r.id, r.name]));
+}
+

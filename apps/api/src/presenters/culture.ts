@@ -1,0 +1,129 @@
+import type {
+  CultureDetailDto,
+  CultureEventDto,
+  CultureHealthDto,
+  CulturePhotoDto,
+  CultureSummaryDto,
+  LineageNodeDto,
+} from '@barmkeep/schemas';
+import { maxStorageDays } from '@barmkeep/core';
+import type { CultureEventRow, CulturePhotoRow, CultureRow } from '../db/schema';
+import type { LineageRow } from '../db/queries/cultures';
+import { ageDaysOf, daysUntil, projectedViabilityOf } from '../services/cultureHealth';
+
+export function presentCultureSummary(c: CultureRow, now: Date, projected?: number): CultureSummaryDto {
+  const viability = projected ?? projectedViabilityOf(c, now).viability;
+  return {
+    id: c.id,
+    strainName: c.strainName,
+    species: c.species,
+    tags: c.tags,
+    form: c.form,
+    origin: c.origin,
+    state: c.state,
+    generation: c.generation,
+    parentId: c.parentId,
+    locationLabel: c.locationLabel,
+    storageTempC: c.storageTempC,
+    madeAt: c.madeAt.toISOString(),
+    ageDays: ageDaysOf(c, now),
+    attentionDueAt: c.attentionDueAt?.toISOString() ?? null,
+    daysUntilAttention: c.attentionDueAt ? daysUntil(c.attentionDueAt, now) : null,
+    attentionAction: c.attentionDueAt ? maxStorageDays(c.form, c.storageTempC).action : null,
+    projectedViability: viability,
+    viabilityBasis: c.measuredAt != null && c.measuredViability != null ? 'measured' : 'model',
+    suspect: c.suspect,
+    ownerUserId: c.ownerUserId,
+  };
+}
+
+/** Plain-language cautions about what the record says. */
+export function cultureWarnings(c: CultureRow): string[] {
+  const w: string[] = [];
+  if (c.originDetails.origin === 'bottle_dregs' && c.originDetails.pasteurized === 'yes') {
+    w.push('Pasteurized beer carries dead sediment: this culture is very unlikely to grow.');
+  }
+  if (c.originDetails.origin === 'bottle_dregs' && c.originDetails.pasteurized === 'unknown') {
+    w.push('If the beer was pasteurized, its sediment is dead; a first feed that shows no activity in a few days is the usual sign.');
+  }
+  if (c.suspect) w.push('Suspected contamination: keep it apart, do not pitch it, and check it before use.');
+  return w;
+}
+
+export function presentCultureDetail(
+  c: CultureRow,
+  now: Date,
+  extra: {
+    health: CultureHealthDto;
+    stateChangedByName: string | null;
+    suspectFrom: { id: string; strainName: string } | null;
+  },
+): CultureDetailDto {
+  return {
+    ...presentCultureSummary(c, now, extra.health.viability),
+    originDetails: c.originDetails,
+    amount: c.amount,
+    notes: c.notes,
+    visibility: c.visibility,
+    ownerClubId: c.ownerClubId,
+    stateChangedAt: c.stateChangedAt.toISOString(),
+    stateChangedBy: c.stateChangedBy && extra.stateChangedByName ? { id: c.stateChangedBy, name: extra.stateChangedByName } : null,
+    suspectFrom:
+      c.suspect && extra.suspectFrom && c.suspectSince
+        ? { ...extra.suspectFrom, since: c.suspectSince.toISOString() }
+        : null,
+    health: extra.health,
+    warnings: cultureWarnings(c),
+    createdAt: c.createdAt.toISOString(),
+  };
+}
+
+export function presentEvent(e: CultureEventRow, authorName: string | null, supersededBy: string | null): CultureEventDto {
+  return {
+    id: e.id,
+    cultureId: e.cultureId,
+    kind: e.kind,
+    occurredAt: e.occurredAt.toISOString(),
+    recordedAt: e.recordedAt.toISOString(),
+    notes: e.notes,
+    data: e.data,
+    author: e.authorUserId && authorName ? { id: e.authorUserId, name: authorName } : null,
+    supersedesEventId: e.supersedesEventId,
+    supersededByEventId: supersededBy,
+  };
+}
+
+/** A node the viewer may not see keeps its place in the tree and nothing else. */
+export function presentLineageNode(n: LineageRow, visible: boolean): LineageNodeDto {
+  if (!visible) {
+    return { id: n.id, parentId: n.parent_id, depth: n.depth, visible: false, strainName: null, generation: n.generation, state: null, form: null, suspect: false, owner: null };
+  }
+  return {
+    id: n.id,
+    parentId: n.parent_id,
+    depth: n.depth,
+    visible: true,
+    strainName: n.strain_name,
+    generation: n.generation,
+    state: n.state,
+    form: n.form,
+    suspect: n.suspect,
+    owner: n.owner_name ? { id: n.owner_user_id, name: n.owner_name } : null,
+  };
+}
+
+export function presentPhoto(p: CulturePhotoRow): CulturePhotoDto {
+  const base = `/api/cultures/${encodeURIComponent(p.cultureId)}/photos/${encodeURIComponent(p.id)}`;
+  return {
+    id: p.id,
+    cultureId: p.cultureId,
+    eventId: p.eventId,
+    caption: p.caption,
+    width: p.width,
+    height: p.height,
+    bytes: p.bytes,
+    createdAt: p.createdAt.toISOString(),
+    webUrl: `${base}/web`,
+    thumbUrl: `${base}/thumb`,
+  };
+}
