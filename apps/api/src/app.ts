@@ -19,8 +19,7 @@ import { accountRouter } from './routes/account/account';
 import { devMailRouter } from './routes/dev/devMail';
 import { healthRouter } from './routes/health/health';
 import { adminRouter } from './routes/admin/admin';
-import { clubsRouter } from './routes/clubs/clubs';
-import { invitationsRouter } from './routes/invitations/invitations';
+import { clubRouteMounts } from './routes/clubs/mounts';
 import { culturesRouter } from './routes/cultures/cultures';
 
 export interface AppDeps {
@@ -78,8 +77,7 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   api.use('/auth', authRouter(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT }));
   api.use('/account', accountRouter(ctx));
   api.use('/admin', adminRouter(ctx));
-  api.use('/clubs', clubsRouter(ctx));
-  api.use('/invitations', invitationsRouter(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT }));
+  for (const mount of clubRouteMounts(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT })) api.use(mount.path, mount.router);
   api.use('/cultures', culturesRouter(ctx));
   if (deps.inbox) api.use('/dev/mail', devMailRouter(deps.inbox));
   api.use(apiNotFound);

@@ -1,3 +1,4 @@
 export * from './limits';
 export * from './auth';
 export * from './cultures';
+export * from './clubs';

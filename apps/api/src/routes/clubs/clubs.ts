@@ -1,0 +1,94 @@
+import { Router, type Request } from 'express';
+import { validate } from '../../middleware/validate';
+import { currentUser, requireUser } from '../../middleware/session';
+import type { ServiceContext } from '../../services/context';
+import * as clubs from '../../services/clubs';
+import {
+  ClubCreateSchema,
+  ClubInvitationCreateSchema,
+  ClubInvitationParamsSchema,
+  ClubMemberParamsSchema,
+  ClubMemberUpdateSchema,
+  ClubParamsSchema,
+  ClubUpdateSchema,
+} from './schema';
+
+type Params = { clubId: string; userId: string; invitationId: string };
+const p = (req: Request) => req.params as unknown as Params;
+const actor = (req: Request) => currentUser(req);
+
+/** Clubs, members and invitations. Routes parse; services/clubs.ts authorizes (via clubAccess). */
+export function clubsRouter(ctx: ServiceContext) {
+  const router = Router();
+  router.use(requireUser);
+
+  router.get('/', async (req, res) => {
+    res.json({ clubs: await clubs.listMyClubs(ctx, actor(req)) });
+  });
+
+  router.post('/', validate({ body: ClubCreateSchema }), async (req, res) => {
+    res.status(201).json({ club: await clubs.createClub(ctx, actor(req), req.body) });
+  });
+
+  router.get('/:clubId', validate({ params: ClubParamsSchema }), async (req, res) => {
+    res.json({ club: await clubs.getClub(ctx, actor(req), p(req).clubId) });
+  });
+
+  router.patch('/:clubId', validate({ params: ClubParamsSchema, body: ClubUpdateSchema }), async (req, res) => {
+    res.json({ club: await clubs.updateClub(ctx, actor(req), p(req).clubId, req.body) });
+  });
+
+  router.delete('/:clubId', validate({ params: ClubParamsSchema }), async (req, res) => {
+    await clubs.deleteClub(ctx, actor(req), p(req).clubId);
+    res.status(204).end();
+  });
+
+  router.post('/:clubId/leave', validate({ params: ClubParamsSchema }), async (req, res) => {
+    await clubs.leaveClub(ctx, actor(req), p(req).clubId);
+    res.status(204).end();
+  });
+
+  router.get('/:clubId/members', validate({ params: ClubParamsSchema }), async (req, res) => {
+    res.json({ members: await clubs.listClubMembers(ctx, actor(req), p(req).clubId) });
+  });
+
+  router.patch(
+    '/:clubId/members/:userId',
+    validate({ params: ClubMemberParamsSchema, body: ClubMemberUpdateSchema }),
+    async (req, res) => {
+      const { clubId, userId } = p(req);
+      res.json({ member: await clubs.changeMemberRole(ctx, actor(req), clubId, userId, req.body) });
+    },
+  );
+
+  router.delete('/:clubId/members/:userId', validate({ params: ClubMemberParamsSchema }), async (req, res) => {
+    const { clubId, userId } = p(req);
+    const me = actor(req);
+    if (userId === me.id) await clubs.leaveClub(ctx, me, clubId);
+    else await clubs.removeMember(ctx, me, clubId, userId);
+    res.status(204).end();
+  });
+
+  router.get('/:clubId/invitations', validate({ params: ClubParamsSchema }), async (req, res) => {
+    res.json({ invitations: await clubs.listClubInvitations(ctx, actor(req), p(req).clubId) });
+  });
+
+  router.post(
+    '/:clubId/invitations',
+    validate({ params: ClubParamsSchema, body: ClubInvitationCreateSchema }),
+    async (req, res) => {
+      res.status(201).json({ invitation: await clubs.createInvitation(ctx, actor(req), p(req).clubId, req.body) });
+    },
+  );
+
+  router.delete(
+    '/:clubId/invitations/:invitationId',
+    validate({ params: ClubInvitationParamsSchema }),
+    async (req, res) => {
+      const { clubId, invitationId } = p(req);
+      res.json({ invitation: await clubs.revokeClubInvitation(ctx, actor(req), clubId, invitationId) });
+    },
+  );
+
+  return router;
+}

@@ -1,0 +1,9 @@
+export {
+  ClubCreateSchema,
+  ClubUpdateSchema,
+  ClubParamsSchema,
+  ClubMemberParamsSchema,
+  ClubMemberUpdateSchema,
+  ClubInvitationParamsSchema,
+  ClubInvitationCreateSchema,
+} from '@barmkeep/schemas';

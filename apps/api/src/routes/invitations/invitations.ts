@@ -1,0 +1,42 @@
+import { Router } from 'express';
+import { rateLimit } from 'express-rate-limit';
+import { validate } from '../../middleware/validate';
+import { currentUser, requireUser } from '../../middleware/session';
+import { AppError, conflict } from '../../lib/errors';
+import { presentUser } from '../../presenters/user';
+import type { ServiceContext } from '../../services/context';
+import * as clubs from '../../services/clubs';
+import { InvitationAcceptSchema, InvitationLookupSchema, InvitationSignUpSchema } from './schema';
+
+/**
+ * Following an invitation link. The token travels in the body (never in a URL that ends up in
+ * logs); lookups and sign-ups are rate limited like the auth routes.
+ */
+export function invitationsRouter(ctx: ServiceContext, options: { rateLimitMax: number }) {
+  const router = Router();
+  const limiter = rateLimit({
+    windowMs: 10 * 60_000,
+    limit: options.rateLimitMax,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: (_req, _res, next) =>
+      next(new AppError(429, 'rate_limited', 'Too many attempts. Wait a few minutes and try again.')),
+  });
+
+  router.post('/lookup', limiter, validate({ body: InvitationLookupSchema }), async (req, res) => {
+    res.json({ invitation: await clubs.previewInvitation(ctx, req.body.token) });
+  });
+
+  router.post('/accept', requireUser, validate({ body: InvitationAcceptSchema }), async (req, res) => {
+    res.json({ club: await clubs.acceptInvitation(ctx, currentUser(req), req.body.token) });
+  });
+
+  router.post('/sign-up', limiter, validate({ body: InvitationSignUpSchema }), async (req, res) => {
+    if (req.auth) throw conflict('signed_in', 'You are signed in already: accept the invitation instead');
+    const { user, session, clubId } = await clubs.signUpThroughInvitation(ctx, req.body);
+    res.append('Set-Cookie', ctx.lucia.createSessionCookie(session.id).serialize());
+    res.status(201).json({ user: presentUser(user), clubId });
+  });
+
+  return router;
+}

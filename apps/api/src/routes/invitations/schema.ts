@@ -1,0 +1,1 @@
+export { InvitationLookupSchema, InvitationAcceptSchema, InvitationSignUpSchema } from '@barmkeep/schemas';
