@@ -1,3 +1,4 @@
 export * from './users';
 export * from './clubs';
 export * from './cultures';
+export * from './notifications';
