@@ -6,6 +6,7 @@ export * from './viability.js';
 export * from './estimate.js';
 export * from './growth.js';
 export * from './planner.js';
+export * from './crossing.js';
 export * from './wort.js';
 export * from './batch.js';
 export * from './units.js';
