@@ -129,4 +129,3 @@ export interface InvitationPreviewDto {
   /** true when an account with the invited e-mail exists: sign in instead of signing up */
   accountExists: boolean;
 }
-

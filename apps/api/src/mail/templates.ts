@@ -10,7 +10,12 @@ function layout(title: string, bodyHtml: string): string {
 ${bodyHtml}</div></body></html>`;
 }
 
-export function passwordResetMail(params: { to: string; name: string; link: string; validMinutes: number }): OutgoingMail {
+export function passwordResetMail(params: {
+  to: string;
+  name: string;
+  link: string;
+  validMinutes: number;
+}): OutgoingMail {
   const { to, name, link, validMinutes } = params;
   return {
     to,

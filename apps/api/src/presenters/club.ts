@@ -1,4 +1,10 @@
-import type { ClubDto, ClubInvitationDto, ClubMemberDto, InvitationPreviewDto, InvitationStatus } from '@barmkeep/schemas';
+import type {
+  ClubDto,
+  ClubInvitationDto,
+  ClubMemberDto,
+  InvitationPreviewDto,
+  InvitationStatus,
+} from '@barmkeep/schemas';
 import type { ClubInvitationRow, ClubRole, ClubRow } from '../db/schema';
 
 const iso = (d: Date | string) => new Date(d).toISOString();

@@ -27,10 +27,7 @@ import type { ServiceContext } from './context';
 export type Actor = ClubActor & { name: string; email: string };
 
 const lastOwner = () =>
-  conflict(
-    'last_owner',
-    'A club needs at least one owner. Make another member an owner first, or delete the club.',
-  );
+  conflict('last_owner', 'A club needs at least one owner. Make another member an owner first, or delete the club.');
 
 export async function listMyClubs(ctx: ServiceContext, actor: Actor) {
   const rows = await q.listClubsOfUser(ctx.db, actor.id);
@@ -40,7 +37,12 @@ export async function listMyClubs(ctx: ServiceContext, actor: Actor) {
 export async function createClub(ctx: ServiceContext, actor: Actor, input: ClubCreateInput) {
   const now = ctx.now();
   const club = await ctx.db.transaction(async (tx) => {
-    const row = await q.insertClub(tx, { id: newId(), name: input.name, description: input.description, createdByUserId: actor.id });
+    const row = await q.insertClub(tx, {
+      id: newId(),
+      name: input.name,
+      description: input.description,
+      createdByUserId: actor.id,
+    });
     await q.insertMembership(tx, { clubId: row.id, userId: actor.id, role: 'owner', joinedAt: now });
     return row;
   });
@@ -99,7 +101,12 @@ export async function changeMemberRole(
   });
 }
 
-async function removeFromClub(ctx: ServiceContext, clubId: string, userId: string, check: (tx: q.DbOrTx) => Promise<void>) {
+async function removeFromClub(
+  ctx: ServiceContext,
+  clubId: string,
+  userId: string,
+  check: (tx: q.DbOrTx) => Promise<void>,
+) {
   await ctx.db.transaction(async (tx) => {
     await q.lockClub(tx, clubId);
     await check(tx);
@@ -138,7 +145,12 @@ const invitationClosed = (inv: ClubInvitationRow, now: Date) => {
 };
 const unknownInvitation = () => notFound('This invitation');
 
-export async function createInvitation(ctx: ServiceContext, actor: Actor, clubId: string, input: ClubInvitationCreateInput) {
+export async function createInvitation(
+  ctx: ServiceContext,
+  actor: Actor,
+  clubId: string,
+  input: ClubInvitationCreateInput,
+) {
   const { club } = await loadClubFor(ctx.db, actor, clubId, input.role === 'member' ? 'steward' : 'owner');
   const existing = await findUserByEmail(ctx.db, input.email);
   if (existing && (await q.findMembership(ctx.db, clubId, existing.id))) {
@@ -255,7 +267,10 @@ export async function signUpThroughInvitation(ctx: ServiceContext, input: Invita
       passwordHash,
     });
     if (!created) {
-      throw conflict('email_taken', `An account with ${found.invitation.email} already exists. Sign in to accept the invitation.`);
+      throw conflict(
+        'email_taken',
+        `An account with ${found.invitation.email} already exists. Sign in to accept the invitation.`,
+      );
     }
     await joinThrough(tx, found.invitation, created.id, now);
     return created;

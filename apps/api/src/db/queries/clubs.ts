@@ -5,7 +5,10 @@ import { clubInvitations, clubs, memberships, users, type ClubRole, type ClubRow
 /** A Db or a transaction on it: the queries below work on either. */
 export type DbOrTx = Db | Parameters<Parameters<Db['transaction']>[0]>[0];
 
-export async function insertClub(db: DbOrTx, values: { id: string; name: string; description: string; createdByUserId: string }) {
+export async function insertClub(
+  db: DbOrTx,
+  values: { id: string; name: string; description: string; createdByUserId: string },
+) {
   const [row] = await db.insert(clubs).values(values).returning();
   return row!;
 }
@@ -90,12 +93,23 @@ export async function listMembers(db: DbOrTx, clubId: string) {
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(eq(memberships.clubId, clubId))
-    .orderBy(sql`case ${memberships.role} when 'owner' then 0 when 'steward' then 1 else 2 end`, asc(users.name), asc(users.id));
+    .orderBy(
+      sql`case ${memberships.role} when 'owner' then 0 when 'steward' then 1 else 2 end`,
+      asc(users.name),
+      asc(users.id),
+    );
 }
 
 /** Returns false when the person already belongs to the club (their role is left as it is). */
-export async function insertMembership(db: DbOrTx, values: { clubId: string; userId: string; role: ClubRole; joinedAt: Date }) {
-  const rows = await db.insert(memberships).values(values).onConflictDoNothing().returning({ userId: memberships.userId });
+export async function insertMembership(
+  db: DbOrTx,
+  values: { clubId: string; userId: string; role: ClubRole; joinedAt: Date },
+) {
+  const rows = await db
+    .insert(memberships)
+    .values(values)
+    .onConflictDoNothing()
+    .returning({ userId: memberships.userId });
   return rows.length > 0;
 }
 
@@ -116,7 +130,16 @@ export async function deleteMembership(db: DbOrTx, clubId: string, userId: strin
 
 export async function insertInvitation(
   db: DbOrTx,
-  values: { id: string; clubId: string; email: string; role: ClubRole; tokenHash: string; invitedByUserId: string; expiresAt: Date; createdAt: Date },
+  values: {
+    id: string;
+    clubId: string;
+    email: string;
+    role: ClubRole;
+    tokenHash: string;
+    invitedByUserId: string;
+    expiresAt: Date;
+    createdAt: Date;
+  },
 ) {
   const [row] = await db.insert(clubInvitations).values(values).returning();
   return row!;
@@ -160,7 +183,9 @@ export async function revokeInvitation(db: DbOrTx, invitationId: string, now: Da
   const [row] = await db
     .update(clubInvitations)
     .set({ revokedAt: now })
-    .where(and(eq(clubInvitations.id, invitationId), isNull(clubInvitations.acceptedAt), isNull(clubInvitations.revokedAt)))
+    .where(
+      and(eq(clubInvitations.id, invitationId), isNull(clubInvitations.acceptedAt), isNull(clubInvitations.revokedAt)),
+    )
     .returning();
   return row;
 }

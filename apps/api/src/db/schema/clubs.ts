@@ -51,7 +51,10 @@ export const clubInvitations = pgTable(
     revokedAt: timestamp('revoked_at', { withTimezone: true }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('club_invitations_club_idx').on(t.clubId, t.createdAt), index('club_invitations_email_idx').on(t.email)],
+  (t) => [
+    index('club_invitations_club_idx').on(t.clubId, t.createdAt),
+    index('club_invitations_email_idx').on(t.email),
+  ],
 );
 
 export type ClubRole = (typeof clubRole.enumValues)[number];

@@ -8,7 +8,10 @@ import { invitationsRouter } from '../invitations/invitations';
  * exactly this list and the authorization matrix test walks it, so a club route cannot be added
  * without the matrix noticing.
  */
-export function clubRouteMounts(ctx: ServiceContext, options: { rateLimitMax: number }): { path: string; router: Router }[] {
+export function clubRouteMounts(
+  ctx: ServiceContext,
+  options: { rateLimitMax: number },
+): { path: string; router: Router }[] {
   return [
     { path: '/clubs', router: clubsRouter(ctx) },
     { path: '/invitations', router: invitationsRouter(ctx, options) },

@@ -1,0 +1,198 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildTestApp, type TestApp } from '../../../test/helpers';
+import {
+  ACTORS,
+  buildClub,
+  makeSiteAdmin,
+  signedUpPerson,
+  type ActorName,
+  type Agent,
+  type Person,
+} from '../../../test/clubFactories';
+import { clubRouteMounts } from './mounts';
+import type { ServiceContext } from '../../services/context';
+import { clubInvitations } from '../../db/schema';
+import { newId, newSecretToken, sha256 } from '../../lib/ids';
+
+/**
+ * The authorization matrix: every club route × every kind of caller, from ONE table. The list of
+ * routes is read from the routers app.ts mounts, so a new club route without a row fails here.
+ */
+
+interface World {
+  t: TestApp;
+  people: Record<Exclude<ActorName, 'anonymous'>, Person>;
+  anonymous: Agent;
+}
+interface Case {
+  clubId: string;
+  actor: ActorName;
+  /** the caller, null when anonymous */
+  me: Person | null;
+}
+interface Entry {
+  /** builds whatever the route acts on; returns path values and the body */
+  prepare?: (w: World, c: Case) => Promise<{ vars?: Record<string, string>; body?: object }>;
+  body?: object;
+  expect: Record<ActorName, number>;
+}
+
+const statuses = (
+  anonymous: number,
+  nonMember: number,
+  member: number,
+  steward: number,
+  owner: number,
+  siteAdmin: number,
+): Record<ActorName, number> => ({ anonymous, nonMember, member, steward, owner, siteAdmin });
+
+let emailCounter = 0;
+const freshEmail = () => `invitee-${process.pid}-${++emailCounter}-${newId(3)}@example.test`;
+
+async function openInvitation(w: World, clubId: string, email: string) {
+  const token = newSecretToken();
+  const id = newId();
+  await w.t.database.db.insert(clubInvitations).values({
+    id,
+    clubId,
+    email,
+    role: 'member',
+    tokenHash: sha256(token),
+    invitedByUserId: w.people.owner.id,
+    expiresAt: new Date(Date.now() + 86_400_000),
+  });
+  return { id, token };
+}
+
+/** A plain member added for routes that act on "someone else in the club". */
+async function extraMember(w: World, clubId: string) {
+  const p = await signedUpPerson(w.t);
+  const { memberships } = await import('../../db/schema');
+  await w.t.database.db.insert(memberships).values({ clubId, userId: p.id, role: 'member' });
+  return p;
+}
+
+const MATRIX: Record<string, Entry> = {
+  'GET /api/clubs': { expect: statuses(401, 200, 200, 200, 200, 200) },
+  'POST /api/clubs': { body: { name: 'Matrix made club' }, expect: statuses(401, 201, 201, 201, 201, 201) },
+  'GET /api/clubs/:clubId': { expect: statuses(401, 404, 200, 200, 200, 200) },
+  'PATCH /api/clubs/:clubId': { body: { description: 'Changed' }, expect: statuses(401, 404, 403, 403, 200, 403) },
+  'DELETE /api/clubs/:clubId': { expect: statuses(401, 404, 403, 403, 204, 204) },
+  // the owner is the only owner in the fixture club: leaving is refused until they hand over
+  'POST /api/clubs/:clubId/leave': { expect: statuses(401, 404, 204, 204, 409, 403) },
+  'GET /api/clubs/:clubId/members': { expect: statuses(401, 404, 200, 200, 200, 200) },
+  'PATCH /api/clubs/:clubId/members/:userId': {
+    prepare: async (w, c) => ({ vars: { userId: (await extraMember(w, c.clubId)).id }, body: { role: 'steward' } }),
+    expect: statuses(401, 404, 403, 403, 200, 403),
+  },
+  'DELETE /api/clubs/:clubId/members/:userId': {
+    prepare: async (w, c) => ({ vars: { userId: (await extraMember(w, c.clubId)).id } }),
+    expect: statuses(401, 404, 403, 403, 204, 403),
+  },
+  'GET /api/clubs/:clubId/invitations': { expect: statuses(401, 404, 403, 200, 200, 403) },
+  'POST /api/clubs/:clubId/invitations': {
+    prepare: async () => ({ body: { email: freshEmail(), role: 'member' } }),
+    expect: statuses(401, 404, 403, 201, 201, 403),
+  },
+  'DELETE /api/clubs/:clubId/invitations/:invitationId': {
+    prepare: async (w, c) => ({ vars: { invitationId: (await openInvitation(w, c.clubId, freshEmail())).id } }),
+    expect: statuses(401, 404, 403, 200, 200, 403),
+  },
+  // the token is the secret: whoever holds it may read what it is for
+  'POST /api/invitations/lookup': {
+    prepare: async (w, c) => ({ body: { token: (await openInvitation(w, c.clubId, freshEmail())).token } }),
+    expect: statuses(200, 200, 200, 200, 200, 200),
+  },
+  // invited at the caller's own address: people already in the club get 409
+  'POST /api/invitations/accept': {
+    prepare: async (w, c) => ({
+      body: { token: (await openInvitation(w, c.clubId, c.me?.email ?? freshEmail())).token },
+    }),
+    expect: statuses(401, 200, 409, 409, 409, 200),
+  },
+  'POST /api/invitations/sign-up': {
+    prepare: async (w, c) => ({
+      body: {
+        token: (await openInvitation(w, c.clubId, freshEmail())).token,
+        name: 'New Keeper',
+        password: 'a-long-enough-secret',
+      },
+    }),
+    expect: statuses(201, 409, 409, 409, 409, 409),
+  },
+};
+
+function mountedRoutes(): string[] {
+  const mounts = clubRouteMounts({} as ServiceContext, { rateLimitMax: 1 });
+  const routes: string[] = [];
+  for (const { path, router } of mounts) {
+    for (const layer of router.stack) {
+      const route = layer.route as { path: string; methods: Record<string, boolean> } | undefined;
+      if (!route) continue;
+      for (const method of Object.keys(route.methods).filter((m) => route.methods[m] && m !== '_all')) {
+        routes.push(`${method.toUpperCase()} /api${path}${route.path === '/' ? '' : route.path}`);
+      }
+    }
+  }
+  return routes.sort();
+}
+
+let w: World;
+beforeAll(async () => {
+  const t = await buildTestApp();
+  const [nonMember, member, steward, owner, siteAdmin] = await Promise.all([
+    signedUpPerson(t, 'Outside Person'),
+    signedUpPerson(t, 'Plain Member'),
+    signedUpPerson(t, 'Club Steward'),
+    signedUpPerson(t, 'Club Owner'),
+    signedUpPerson(t, 'Site Admin'),
+  ]);
+  await makeSiteAdmin(t, siteAdmin!);
+  w = {
+    t,
+    anonymous: t.agent(),
+    people: { nonMember: nonMember!, member: member!, steward: steward!, owner: owner!, siteAdmin: siteAdmin! },
+  };
+});
+afterAll(async () => {
+  await w.t.close();
+});
+
+describe('club authorization matrix', () => {
+  it('has exactly one entry per mounted club route', () => {
+    const routes = mountedRoutes();
+    expect(routes.length).toBeGreaterThanOrEqual(15);
+    expect(Object.keys(MATRIX).sort()).toEqual(routes);
+  });
+
+  const cases = Object.entries(MATRIX).flatMap(([route, entry]) => ACTORS.map((actor) => ({ route, entry, actor })));
+
+  it.each(cases)('$route as $actor', async ({ route, entry, actor }) => {
+    const clubId = await buildClub(w.t, [
+      { person: w.people.owner, role: 'owner' },
+      { person: w.people.steward, role: 'steward' },
+      { person: w.people.member, role: 'member' },
+    ]);
+    const me = actor === 'anonymous' ? null : w.people[actor];
+    const prepared = (await entry.prepare?.(w, { clubId, actor, me })) ?? {};
+    const vars: Record<string, string> = { clubId, ...prepared.vars };
+    const [method, template] = route.split(' ') as [string, string];
+    const url = template.replace(/:(\w+)/g, (_, name: string) => {
+      if (!(name in vars)) throw new Error(`no value for :${name}`);
+      return encodeURIComponent(vars[name]!);
+    });
+    const agent = me ? me.agent : w.anonymous;
+    const body = prepared.body ?? entry.body;
+    const call = agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete'](url);
+    const res = body ? await call.send(body) : await call;
+    const want = entry.expect[actor];
+    expect({ status: res.status, body: res.status === want ? 'as expected' : res.body }).toEqual({
+      status: want,
+      body: 'as expected',
+    });
+    if (want >= 400) {
+      expect(res.headers['content-type']).toMatch(/application\/json/);
+      expect(res.body.error.code).toEqual(expect.any(String));
+    }
+  });
+});
