@@ -21,6 +21,8 @@ import { healthRouter } from './routes/health/health';
 import { adminRouter } from './routes/admin/admin';
 import { clubRouteMounts } from './routes/clubs/mounts';
 import { culturesRouter } from './routes/cultures/cultures';
+import { culturePhotosRouter } from './routes/cultures/photos';
+import { createStorage, type ObjectStorage } from './storage';
 
 export interface AppDeps {
   env: Env;
@@ -30,6 +32,8 @@ export interface AppDeps {
   /** The fake inbox, when mail goes to the local fake SMTP server. */
   inbox?: FakeInbox;
   now?: () => Date;
+  /** Where photos go; by default chosen from env (local disk or S3). */
+  storage?: ObjectStorage;
 }
 
 export function appUrlOf(env: Env) {
@@ -79,6 +83,7 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   api.use('/admin', adminRouter(ctx));
   for (const mount of clubRouteMounts(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT })) api.use(mount.path, mount.router);
   api.use('/cultures', culturesRouter(ctx));
+  api.use('/cultures', culturePhotosRouter(ctx, deps.storage ?? createStorage(env)));
   if (deps.inbox) api.use('/dev/mail', devMailRouter(deps.inbox));
   api.use(apiNotFound);
   app.use('/api', api);

@@ -18,6 +18,16 @@ const EnvSchema = z.object({
   SESSION_DAYS: z.coerce.number().positive().default(30),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   WEB_DIST: z.string().optional(),
+  /** Uploaded photos: local disk (default, UPLOADS_DIR or .data/uploads) or an S3-compatible bucket. */
+  STORAGE_DRIVER: z.enum(['local', 's3']).default('local'),
+  UPLOADS_DIR: z.string().optional(),
+  S3_BUCKET: z.string().optional(),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  S3_FORCE_PATH_STYLE: z.enum(['0', '1']).default('1'),
+  S3_PREFIX: z.string().optional(),
 });
 
 export type Env = z.infer<typeof EnvSchema>;

@@ -2,6 +2,7 @@ import { sql } from 'drizzle-orm';
 import type { Db } from './client';
 import { clubs, memberships, users } from './schema';
 import { hashPassword } from '../lib/password';
+import { seedDemoCultures } from './seeds/cultures';
 
 /** An invented club and its members. Every name here is made up. */
 export const DEMO_PASSWORD = 'sourdough-lantern-42';
@@ -14,7 +15,7 @@ export const DEMO_MEMBERS = [
 
 export type DemoSeeder = (db: Db) => Promise<void>;
 /** Other features register the demo rows they own (cultures, plans…) here. */
-export const demoSeeders: DemoSeeder[] = [];
+export const demoSeeders: DemoSeeder[] = [seedDemoCultures];
 
 /** Seeds only an empty database; returns the sign-ins to print. */
 export async function seedDemoIfEmpty(db: Db): Promise<string[]> {

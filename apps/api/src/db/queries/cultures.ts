@@ -1,7 +1,16 @@
 import { and, asc, desc, eq, gte, ilike, inArray, lte, or, sql, type SQL } from 'drizzle-orm';
 import type { CultureState, CultureForm, CultureSort } from '@barmkeep/schemas';
 import type { Db } from '../client';
-import { cultureEvents, cultures, users, type CultureEventRow, type CultureInsert, type CultureRow } from '../schema';
+import {
+  cultureEvents,
+  culturePhotos,
+  cultures,
+  users,
+  type CultureEventRow,
+  type CultureInsert,
+  type CulturePhotoRow,
+  type CultureRow,
+} from '../schema';
 
 type Executor = Pick<Db, 'select' | 'insert' | 'update' | 'execute' | 'delete'>;
 
@@ -295,3 +304,31 @@ export async function findUserNames(db: Executor, ids: string[]): Promise<Map<st
   return new Map(rows.map((r) => [r.id, r.name]));
 }
 
+
+// ---------------------------------------------------------------- photos
+
+export async function insertPhoto(db: Executor, values: typeof culturePhotos.$inferInsert): Promise<CulturePhotoRow> {
+  const [row] = await db.insert(culturePhotos).values(values).returning();
+  return row!;
+}
+
+export async function listPhotosOfCulture(db: Executor, cultureId: string): Promise<CulturePhotoRow[]> {
+  return db
+    .select()
+    .from(culturePhotos)
+    .where(eq(culturePhotos.cultureId, cultureId))
+    .orderBy(desc(culturePhotos.createdAt), desc(culturePhotos.id));
+}
+
+export async function findPhoto(db: Executor, cultureId: string, photoId: string): Promise<CulturePhotoRow | undefined> {
+  const [row] = await db
+    .select()
+    .from(culturePhotos)
+    .where(and(eq(culturePhotos.id, photoId), eq(culturePhotos.cultureId, cultureId)))
+    .limit(1);
+  return row;
+}
+
+export async function deletePhotoRow(db: Executor, photoId: string): Promise<void> {
+  await db.delete(culturePhotos).where(eq(culturePhotos.id, photoId));
+}
