@@ -10,3 +10,5 @@ export * from './crossing.js';
 export * from './wort.js';
 export * from './batch.js';
 export * from './units.js';
+export * from './schedule.js';
+export * from './brewPlan.js';

@@ -52,6 +52,11 @@ export interface PlanStepUpInput {
   maxSteps?: number;
   /** viable cells per mL a step must start with; default 0.5 million */
   minInoculationCellsPerMl?: number;
+  /**
+   * Multiplies the new cells each step grows (a person's measured/predicted ratio, see
+   * growthCorrectionRatio); default 1, which leaves the model as published.
+   */
+  growthCorrection?: number;
 }
 
 export interface PlanStep {
@@ -98,6 +103,7 @@ export function planStepUp(input: PlanStepUpInput): StepUpPlan {
     minFinalVolume = 0,
     maxSteps = DEFAULT_MAX_STEPS,
     minInoculationCellsPerMl = MIN_INOCULATION_CELLS_PER_ML,
+    growthCorrection = 1,
   } = input;
   if (!(startCells >= 0)) throw new RangeError('startCells must be ≥ 0');
   if (!(viability >= 0 && viability <= 1)) throw new RangeError('viability must be between 0 and 1');
@@ -105,8 +111,12 @@ export function planStepUp(input: PlanStepUpInput): StepUpPlan {
   if (!(maxStepFactor >= 1)) throw new RangeError('maxStepFactor must be ≥ 1');
   if (!(starterPlato > 0)) throw new RangeError('starterPlato must be > 0');
   if (!Number.isInteger(maxSteps) || maxSteps < 1) throw new RangeError('maxSteps must be a positive integer');
-  const factor = AGITATION_FACTORS[agitation]?.factor;
-  if (factor === undefined) throw new RangeError(`unknown agitation: ${String(agitation)}`);
+  const agitationFactor = AGITATION_FACTORS[agitation]?.factor;
+  if (agitationFactor === undefined) throw new RangeError(`unknown agitation: ${String(agitation)}`);
+  if (!(growthCorrection > 0) || !Number.isFinite(growthCorrection)) {
+    throw new RangeError('growthCorrection must be a positive number');
+  }
+  const factor = agitationFactor * growthCorrection;
 
   const viableStart = startCells * viability;
   const firstPlato =
