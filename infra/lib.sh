@@ -55,8 +55,8 @@ pg_data_root() {
   echo "$d"
 }
 
-run_pg() { # run a postgres binary as the postgres user when we are root
-  if [ "$(id -u)" = 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi
+run_pg() { # run a postgres binary as the postgres user when we are root (from / : it may not enter the checkout)
+  if [ "$(id -u)" = 0 ]; then (cd / && runuser -u postgres -- "$@"); else "$@"; fi
 }
 
 pg_ready() { "$(pg_bin_dir)/pg_isready" -h "$PGHOST_ADDR" -p "$PGPORT" -q 2>/dev/null; }
