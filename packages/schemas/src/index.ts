@@ -2,3 +2,4 @@ export * from './limits';
 export * from './auth';
 export * from './cultures';
 export * from './clubs';
+export * from './planning';

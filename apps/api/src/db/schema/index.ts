@@ -2,3 +2,4 @@ export * from './users';
 export * from './clubs';
 export * from './cultures';
 export * from './notifications';
+export * from './planning';
