@@ -29,7 +29,10 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
         {
           // Open whether or not someone is signed in: the link comes from an e-mail.
           lazy: () => import('./layouts/AuthLayout'),
-          children: [{ path: 'reset-password', lazy: () => import('./routes/reset-password') }],
+          children: [
+            { path: 'reset-password', lazy: () => import('./routes/reset-password') },
+            { path: 'invitation', lazy: () => import('./routes/invitation') },
+          ],
         },
         {
           id: 'app',
@@ -38,6 +41,22 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           children: [
             { index: true, lazy: () => import('./routes/home') },
             { path: 'account', lazy: () => import('./routes/account') },
+            { path: 'cultures', lazy: () => import('./routes/cultures/library') },
+            { path: 'cultures/new', lazy: () => import('./routes/cultures/new') },
+            { path: 'cultures/:id', lazy: () => import('./routes/cultures/detail') },
+            // d3-hierarchy loads only with this page, recharts only with the culture page
+            { path: 'cultures/:id/lineage', lazy: () => import('./routes/cultures/lineage') },
+            { path: 'clubs', lazy: () => import('./routes/clubs') },
+            {
+              path: 'clubs/:clubId',
+              lazy: () => import('./routes/club'),
+              children: [
+                { index: true, lazy: () => import('./routes/club-about') },
+                { path: 'members', lazy: () => import('./routes/club-members') },
+                { path: 'invitations', lazy: () => import('./routes/club-invitations') },
+                { path: 'settings', lazy: () => import('./routes/club-settings') },
+              ],
+            },
           ],
         },
         {

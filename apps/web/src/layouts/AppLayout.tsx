@@ -9,6 +9,7 @@ import { Brand } from './Brand';
 
 const navItems = [
   { to: '/', label: 'Cultures', end: true },
+  { to: '/clubs', label: 'Clubs', end: false },
   { to: '/account', label: 'Account', end: false },
 ] as const;
 
