@@ -66,6 +66,16 @@ export const AccountUpdateSchema = z
   .partial();
 export type AccountUpdateInput = z.infer<typeof AccountUpdateSchema>;
 
+/** Changing the password while signed in: the current one proves it is you; every other session ends. */
+export const AccountPasswordChangeSchema = z.object({
+  currentPassword: z
+    .string({ error: 'Enter your current password' })
+    .min(1, 'Enter your current password')
+    .max(limits.passwordMax),
+  newPassword: passwordField,
+});
+export type AccountPasswordChangeInput = z.infer<typeof AccountPasswordChangeSchema>;
+
 /** The user as the API presents it. */
 export interface UserDto {
   id: string;

@@ -2,9 +2,9 @@ import { useMemo } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
-import { AccountUpdateSchema, limits, type UserDto } from '@barmkeep/schemas';
+import { AccountPasswordChangeSchema, AccountUpdateSchema, limits, type UserDto } from '@barmkeep/schemas';
 import { authQueries } from '../api/auth/queries';
-import { useUpdateAccountMutation } from '../api/account/mutations';
+import { useChangePasswordMutation, useUpdateAccountMutation } from '../api/account/mutations';
 import {
   Button,
   Card,
@@ -176,13 +176,86 @@ function AccountForm({ user }: { user: UserDto }) {
   );
 }
 
+/** Changing the password signs the account out of every other browser and device. */
+function PasswordForm() {
+  const changePassword = useChangePasswordMutation();
+  const {
+    register,
+    handleSubmit,
+    setError,
+    reset,
+    formState: { errors, isSubmitting },
+  } = useForm({
+    resolver: zodResolver(AccountPasswordChangeSchema),
+    defaultValues: { currentPassword: '', newPassword: '' },
+  });
+  const onSubmit = handleSubmit(async (values) => {
+    try {
+      await changePassword.mutateAsync(values);
+      reset({ currentPassword: '', newPassword: '' });
+    } catch (error) {
+      applyApiError(error, setError, ['currentPassword', 'newPassword']);
+    }
+  });
+  return (
+    <form onSubmit={onSubmit} noValidate className="mt-8 space-y-4" aria-labelledby="password-heading">
+      <Card className="space-y-4">
+        <div>
+          <h2 id="password-heading" className="text-lg font-semibold">
+            Password
+          </h2>
+          <p className="text-sm text-ink-muted">
+            A new password signs you out on every other browser and phone. This one stays signed in.
+          </p>
+        </div>
+        <FormAlert message={errors.root?.server?.message} />
+        <TextField
+          label="Current password"
+          type="password"
+          autoComplete="current-password"
+          revealable
+          error={errors.currentPassword?.message}
+          {...register('currentPassword')}
+        />
+        <TextField
+          label="New password"
+          type="password"
+          autoComplete="new-password"
+          hint={`At least ${limits.passwordMin} characters.`}
+          maxLength={limits.passwordMax}
+          revealable
+          error={errors.newPassword?.message}
+          {...register('newPassword')}
+        />
+      </Card>
+      <div className="space-y-3">
+        <Button type="submit" busy={isSubmitting} busyLabel="Changing…">
+          Change password
+        </Button>
+        {changePassword.isSuccess ? (
+          <Notice tone="success" live="polite" word="Changed">
+            Your password is changed and every other session is signed out.
+          </Notice>
+        ) : null}
+      </div>
+    </form>
+  );
+}
+
 export function Component() {
   const { data: user } = useQuery(authQueries.me());
   return (
     <>
       <title>Account · Barmkeep</title>
       <PageHeader title="Account" description="Your name, and how Barmkeep shows numbers to you." />
-      {user ? <AccountForm user={user} /> : <Loading />}
+      {user ? (
+        <>
+          <AccountForm user={user} />
+          <PasswordForm />
+        </>
+      ) : (
+        <Loading />
+      )}
     </>
   );
 }

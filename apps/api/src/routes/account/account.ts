@@ -2,9 +2,9 @@ import { Router } from 'express';
 import { validate } from '../../middleware/validate';
 import { currentUser, requireUser } from '../../middleware/session';
 import { presentUser } from '../../presenters/user';
-import { updateAccount } from '../../services/account';
+import { changePassword, updateAccount } from '../../services/account';
 import type { ServiceContext } from '../../services/context';
-import { AccountUpdateSchema } from './schema';
+import { AccountPasswordChangeSchema, AccountUpdateSchema } from './schema';
 
 export function accountRouter(ctx: ServiceContext) {
   const router = Router();
@@ -12,6 +12,11 @@ export function accountRouter(ctx: ServiceContext) {
   router.patch('/', validate({ body: AccountUpdateSchema }), async (req, res) => {
     const user = await updateAccount(ctx, currentUser(req).id, req.body);
     res.json({ user: presentUser(user) });
+  });
+  router.post('/password', validate({ body: AccountPasswordChangeSchema }), async (req, res) => {
+    const session = await changePassword(ctx, currentUser(req).id, req.body);
+    res.append('Set-Cookie', ctx.lucia.createSessionCookie(session.id).serialize());
+    res.status(204).end();
   });
   return router;
 }

@@ -1,1 +1,1 @@
-export { AccountUpdateSchema } from '@barmkeep/schemas';
+export { AccountPasswordChangeSchema, AccountUpdateSchema } from '@barmkeep/schemas';

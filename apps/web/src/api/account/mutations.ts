@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { AccountUpdateInput, UserDto } from '@barmkeep/schemas';
+import type { AccountPasswordChangeInput, AccountUpdateInput, UserDto } from '@barmkeep/schemas';
 import { api } from '../client';
 import { authKeys } from '../auth/queries';
 
@@ -12,5 +12,12 @@ export function useUpdateAccountMutation() {
       queryClient.setQueryData(authKeys.me(), user);
       await queryClient.invalidateQueries({ queryKey: authKeys.all, refetchType: 'none' });
     },
+  });
+}
+
+/** A new password ends every other session; this browser keeps a fresh one, so nothing to refetch. */
+export function useChangePasswordMutation() {
+  return useMutation({
+    mutationFn: (input: AccountPasswordChangeInput) => api.post<void>('/account/password', input),
   });
 }
