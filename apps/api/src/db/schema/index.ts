@@ -3,3 +3,4 @@ export * from './clubs';
 export * from './cultures';
 export * from './notifications';
 export * from './planning';
+export * from './clubs-bank';
