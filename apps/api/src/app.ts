@@ -21,6 +21,8 @@ import { healthRouter } from './routes/health/health';
 import { adminRouter } from './routes/admin/admin';
 import { clubRouteMounts } from './routes/clubs/mounts';
 import { culturesRouter } from './routes/cultures/cultures';
+import { notificationsRouter, reminderPreferencesRouter } from './routes/notifications/notifications';
+import { emailPreferencesRouter, oneClickUnsubscribeRouter } from './routes/emailPreferences/emailPreferences';
 import { culturePhotosRouter } from './routes/cultures/photos';
 import { createStorage, type ObjectStorage } from './storage';
 
@@ -75,6 +77,8 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
 
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
+  // Mail providers' one-click unsubscribe carries no Origin; the secret token is its authority.
+  api.use('/email-preferences', oneClickUnsubscribeRouter(ctx));
   api.use(originCheck([appUrl, ...env.ALLOWED_ORIGINS.split(',').filter(Boolean)]));
   api.use(sessionMiddleware(lucia));
   api.use('/health', healthRouter(db));
@@ -84,6 +88,9 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   for (const mount of clubRouteMounts(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT })) api.use(mount.path, mount.router);
   api.use('/cultures', culturesRouter(ctx));
   api.use('/cultures', culturePhotosRouter(ctx, deps.storage ?? createStorage(env)));
+  api.use('/notifications', notificationsRouter(ctx));
+  api.use('/reminder-preferences', reminderPreferencesRouter(ctx));
+  api.use('/email-preferences', emailPreferencesRouter(ctx));
   if (deps.inbox) api.use('/dev/mail', devMailRouter(deps.inbox));
   api.use(apiNotFound);
   app.use('/api', api);

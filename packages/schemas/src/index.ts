@@ -2,4 +2,5 @@ export * from './limits';
 export * from './auth';
 export * from './cultures';
 export * from './clubs';
+export * from './notifications';
 export * from './planning';

@@ -18,6 +18,8 @@ const EnvSchema = z.object({
   SESSION_DAYS: z.coerce.number().positive().default(30),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   WEB_DIST: z.string().optional(),
+  /** When the reminders worker evaluates the rules (cron, UTC). */
+  REMINDER_CRON: z.string().default('*/5 * * * *'),
   /** Uploaded photos: local disk (default, UPLOADS_DIR or .data/uploads) or an S3-compatible bucket. */
   STORAGE_DRIVER: z.enum(['local', 's3']).default('local'),
   UPLOADS_DIR: z.string().optional(),

@@ -5,6 +5,8 @@ export interface OutgoingMail {
   subject: string;
   text: string;
   html: string;
+  /** extra headers, e.g. List-Unsubscribe */
+  headers?: Record<string, string>;
 }
 
 export interface Mailer {

@@ -1,0 +1,7 @@
+export {
+  NotificationListSchema,
+  NotificationIdParamsSchema,
+  NotificationPreferencesUpdateSchema,
+  EmailPreferencesUpdateSchema,
+  EmailTokenParamsSchema,
+} from '@barmkeep/schemas';
