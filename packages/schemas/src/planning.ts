@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { platoFromSg, type BrewPlan, type PitchRatePresetKey } from '@barmkeep/core';
+import { platoFromSg, type BrewPlan, type CultureCellsInput, type PitchRatePresetKey } from '@barmkeep/core';
 import { limits } from './limits';
-import { CountDataSchema, dateTimeField } from './cultures';
+import { CountDataSchema, dateTimeField, type CultureDetailDto } from './cultures';
 
 /** Limits for brew-day planning, shared by the API and the forms. */
 export const planningLimits = {
@@ -414,4 +414,26 @@ export interface GenerationPointDto {
   generation: number;
   apparentAttenuation: number | null;
   lagHours: number | null;
+}
+
+/**
+ * The fields of a culture (as the API presents it) that core's computeBrewPlan needs, or the reason
+ * it cannot be used. Browser and API both call this, so they plan from the same numbers.
+ */
+export function cultureCellsInputOf(
+  c: Pick<CultureDetailDto, 'form' | 'madeAt' | 'storageTempC' | 'health'>,
+): { input: CultureCellsInput } | { missing: string } {
+  const cells = c.health.cells;
+  if (!cells) return { missing: c.health.cellsMissing ?? 'This culture has no cell figure yet.' };
+  const m = c.health.measured;
+  return {
+    input: {
+      form: c.form,
+      madeAt: new Date(c.madeAt),
+      storageTempC: c.storageTempC,
+      measuredAt: m?.at && m.viability != null ? new Date(m.at) : null,
+      measuredViability: m?.viability ?? null,
+      cells: { cells: cells.total, low: cells.low, high: cells.high },
+    },
+  };
 }

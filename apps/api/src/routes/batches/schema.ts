@@ -1,0 +1,7 @@
+export {
+  makeBatchCreateSchema,
+  BatchUpdateSchema,
+  BatchIdParamsSchema,
+  BatchHarvestSchema,
+  GenerationChartQuerySchema,
+} from '@barmkeep/schemas';

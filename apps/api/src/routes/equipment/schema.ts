@@ -1,0 +1,1 @@
+export { EquipmentUpdateSchema } from '@barmkeep/schemas';

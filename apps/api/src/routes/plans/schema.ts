@@ -1,0 +1,7 @@
+export {
+  makePlanCreateSchema,
+  PlanIdParamsSchema,
+  PlanStepParamsSchema,
+  PlanStepCompleteSchema,
+  PlanStatusSchema,
+} from '@barmkeep/schemas';
