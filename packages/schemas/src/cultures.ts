@@ -336,6 +336,8 @@ export const CountDataSchema = z
     squareSize: z.enum(['medium', 'large']).default('medium'),
     live: countInt('live cells', 0, cultureLimits.stainMax).optional(),
     dead: countInt('dead cells', 0, cultureLimits.stainMax).optional(),
+    /** the volume of the whole culture the sample came from; turns cells/mL into total cells */
+    cultureVolumeMl: positiveNumber('culture volume (mL)', cultureLimits.volumeMaxMl).optional(),
   })
   .superRefine((v, ctx) => {
     if ((v.live === undefined) !== (v.dead === undefined)) {

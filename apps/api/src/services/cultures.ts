@@ -435,6 +435,9 @@ async function applyEventEffects(
   switch (input.kind) {
     case 'counted':
       await refreshMeasured(tx, row.id);
+      if (input.data.cultureVolumeMl !== undefined) {
+        await updateCultureRow(tx, row.id, { amount: { ...row.amount, volumeMl: input.data.cultureVolumeMl } });
+      }
       break;
     case 'moved': {
       const next = {

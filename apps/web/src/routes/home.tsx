@@ -1,11 +1,32 @@
 import { useQuery } from '@tanstack/react-query';
 import { Plus } from 'lucide-react';
 import { authQueries } from '../api/auth/queries';
-import { ButtonLink, EmptyState, Mark, PageHeader } from '../components';
+import { cultureQueries } from '../api/cultures/queries';
+import { ButtonLink, EmptyState, Loading, Mark, PageHeader } from '../components';
+import { CultureLibrary } from './cultures/library';
 
 export function Component() {
   const { data: user } = useQuery(authQueries.me());
   const firstName = user?.name.split(/\s+/)[0];
+  const any = useQuery(cultureQueries.list({ sort: 'attention', dir: 'asc', page: 1, pageSize: 1 }));
+  if (any.isPending) return <Loading label="Loading your cultures…" />;
+  if (any.data && any.data.total > 0) {
+    return (
+      <>
+        <title>Your cultures · Barmkeep</title>
+        <PageHeader
+          title="Your cultures"
+          description={firstName ? `${firstName}, this is everything you are keeping alive.` : undefined}
+          actions={
+            <ButtonLink to="/cultures/new" icon={<Plus aria-hidden className="size-5" />}>
+              Add a culture
+            </ButtonLink>
+          }
+        />
+        <CultureLibrary />
+      </>
+    );
+  }
 
   return (
     <>

@@ -245,6 +245,19 @@ describe('handling log', () => {
     expect(detail.health.measured.viability).toBeCloseTo(stain.viability, 5);
   });
 
+  it('a count can say how much culture there is, which turns cells/mL into total cells', async () => {
+    const { agent } = await keeper();
+    const c = await create(agent, buildDregs());
+    await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'counted', data: { cellsCounted: 120, squaresCounted: 10, dilution: 2 } }).expect(201);
+    const before = (await agent.get(`/api/cultures/${c.id}`)).body.culture.health;
+    expect(before.cells).toBeNull();
+    expect(before.cellsMissing).toMatch(/volume/);
+    await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'counted', data: { cellsCounted: 120, squaresCounted: 10, dilution: 2, cultureVolumeMl: 40 } }).expect(201);
+    const after = (await agent.get(`/api/cultures/${c.id}`)).body.culture;
+    expect(after.amount.volumeMl).toBe(40);
+    expect(after.health.cells.total).toBeCloseTo(hemocytometerCount({ cellsCounted: 120, squaresCounted: 10, dilution: 2 }).cellsPerMl * 40, -2);
+  });
+
   it('refuses absurd counts and half a stain', async () => {
     const { agent } = await keeper();
     const c = await create(agent, buildSlurry(undefined));
