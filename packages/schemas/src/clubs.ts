@@ -80,7 +80,12 @@ export const InvitationSignUpSchema = z.object({
 export type InvitationSignUpInput = z.infer<typeof InvitationSignUpSchema>;
 
 export const ClubActivityQuerySchema = z.object({
-  before: z.iso.datetime({ offset: true }).optional(),
+  /** the `nextBefore` cursor of the previous page */
+  before: z
+    .string()
+    .max(120)
+    .regex(/^\d{4}-\d\d-\d\dT[\d:.]+Z\|[A-Za-z0-9_-]+$/, 'Not a page cursor')
+    .optional(),
   limit: z.coerce.number().int().min(1).max(100).default(30),
 });
 
@@ -128,4 +133,93 @@ export interface InvitationPreviewDto {
   expiresAt: string;
   /** true when an account with the invited e-mail exists: sign in instead of signing up */
   accountExists: boolean;
+}
+
+/* The club bank: listings, requests and handoffs */
+
+const note = (max: number) => z.string().trim().max(max, `At most ${max} characters`).default('');
+
+export const ClubListingParamsSchema = z.object({ clubId: rowId, listingId: rowId });
+export const StrainRequestParamsSchema = z.object({ clubId: rowId, requestId: rowId });
+
+export const ClubListingCreateSchema = z.object({
+  cultureId: rowId,
+  note: note(500),
+});
+export type ClubListingCreateInput = z.infer<typeof ClubListingCreateSchema>;
+
+export const StrainRequestCreateSchema = z.object({
+  listingId: rowId,
+  message: note(1000),
+  neededBy: z.iso.datetime({ offset: true, message: 'Give a date and time' }).optional(),
+  wantedForm: z.string().trim().max(40).optional(),
+});
+export type StrainRequestCreateInput = z.infer<typeof StrainRequestCreateSchema>;
+
+export const StrainRequestRespondSchema = z
+  .object({
+    action: z.enum(['approve', 'accept', 'decline', 'propose'], {
+      error: 'Choose approve, accept, decline or propose',
+    }),
+    note: note(1000),
+    proposedAt: z.iso.datetime({ offset: true, message: 'Give a date and time' }).optional(),
+  })
+  .refine((v) => v.action !== 'propose' || v.proposedAt !== undefined, {
+    path: ['proposedAt'],
+    message: 'Say when instead',
+  });
+export type StrainRequestRespondInput = z.infer<typeof StrainRequestRespondSchema>;
+
+export const StrainRequestReceiveSchema = z.object({
+  locationLabel: z.string().trim().max(120, 'At most 120 characters').default(''),
+  storageTempC: z.coerce
+    .number()
+    .min(-200, 'Below −200 °C is not a storage temperature')
+    .max(40, 'Above 40 °C is not storage')
+    .default(4),
+});
+export type StrainRequestReceiveInput = z.infer<typeof StrainRequestReceiveSchema>;
+
+export interface ClubListingDto {
+  id: string;
+  cultureId: string;
+  strainName: string;
+  species: string | null;
+  form: string;
+  generation: number;
+  state: string;
+  suspect: boolean;
+  keeper: { id: string; name: string };
+  note: string;
+  /** 0–1, today's projection from the keeper's records */
+  projectedViability: number | null;
+  canRequest: boolean;
+  listedAt: string;
+}
+
+export interface StrainRequestDto {
+  id: string;
+  listingId: string;
+  cultureId: string;
+  strainName: string;
+  requester: { id: string; name: string };
+  keeper: { id: string; name: string };
+  message: string;
+  neededBy: string | null;
+  wantedForm: string | null;
+  status: 'awaiting_approval' | 'open' | 'proposed' | 'accepted' | 'declined' | 'received' | 'cancelled';
+  responseNote: string;
+  proposedAt: string | null;
+  receivedCultureId: string | null;
+  createdAt: string;
+}
+
+export interface ClubActivityDto {
+  id: string;
+  kind: string;
+  actorName: string | null;
+  cultureId: string | null;
+  requestId: string | null;
+  data: Record<string, unknown>;
+  createdAt: string;
 }

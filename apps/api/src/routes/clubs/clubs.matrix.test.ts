@@ -11,7 +11,7 @@ import {
 } from '../../../test/clubFactories';
 import { clubRouteMounts } from './mounts';
 import type { ServiceContext } from '../../services/context';
-import { clubInvitations } from '../../db/schema';
+import { clubInvitations, clubListings, cultures, strainRequests } from '../../db/schema';
 import { newId, newSecretToken, sha256 } from '../../lib/ids';
 
 /**
@@ -72,6 +72,52 @@ async function extraMember(w: World, clubId: string) {
   return p;
 }
 
+/** A culture of `keeperId`, written straight to the table. */
+async function cultureOf(w: World, keeperId: string) {
+  const id = newId();
+  await w.t.database.db.insert(cultures).values({
+    id,
+    ownerUserId: keeperId,
+    strainName: `Matrix strain ${id.slice(0, 4)}`,
+    origin: 'purchased',
+    originDetails: { origin: 'purchased', maker: 'Invented Labs', packType: 'dry' } as never,
+    form: 'dry_pack',
+    storageTempC: 4,
+    madeAt: new Date(Date.now() - 5 * 86_400_000),
+  });
+  return id;
+}
+
+async function listed(w: World, clubId: string, keeperId: string) {
+  const cultureId = await cultureOf(w, keeperId);
+  const listingId = newId();
+  await w.t.database.db.insert(clubListings).values({ id: listingId, clubId, cultureId, listedByUserId: keeperId });
+  return { cultureId, listingId };
+}
+
+async function requestBetween(
+  w: World,
+  clubId: string,
+  keeperId: string,
+  requesterId: string,
+  status: 'open' | 'accepted',
+) {
+  const { cultureId, listingId } = await listed(w, clubId, keeperId);
+  const id = newId();
+  await w.t.database.db.insert(strainRequests).values({
+    id,
+    clubId,
+    listingId,
+    cultureId,
+    keeperUserId: keeperId,
+    requesterUserId: requesterId,
+    status,
+  });
+  return id;
+}
+
+const inClub = (c: Case) => c.actor === 'member' || c.actor === 'steward' || c.actor === 'owner';
+
 const MATRIX: Record<string, Entry> = {
   'GET /api/clubs': { expect: statuses(401, 200, 200, 200, 200, 200) },
   'POST /api/clubs': { body: { name: 'Matrix made club' }, expect: statuses(401, 201, 201, 201, 201, 201) },
@@ -98,6 +144,54 @@ const MATRIX: Record<string, Entry> = {
     prepare: async (w, c) => ({ vars: { invitationId: (await openInvitation(w, c.clubId, freshEmail())).id } }),
     expect: statuses(401, 404, 403, 200, 200, 403),
   },
+  'GET /api/clubs/:clubId/bank': {
+    prepare: async (w, c) => (await listed(w, c.clubId, w.people.steward.id), {}),
+    expect: statuses(401, 404, 200, 200, 200, 200),
+  },
+  // everyone offers a culture of their own; only members may
+  'POST /api/clubs/:clubId/bank': {
+    prepare: async (w, c) => ({ body: { cultureId: await cultureOf(w, c.me?.id ?? w.people.nonMember.id) } }),
+    expect: statuses(401, 404, 201, 201, 201, 403),
+  },
+  // listed by another member: the keeper or a steward may take it out
+  'DELETE /api/clubs/:clubId/bank/:listingId': {
+    prepare: async (w, c) => ({
+      vars: { listingId: (await listed(w, c.clubId, (await extraMember(w, c.clubId)).id)).listingId },
+    }),
+    expect: statuses(401, 404, 403, 204, 204, 403),
+  },
+  'GET /api/clubs/:clubId/requests': { expect: statuses(401, 404, 200, 200, 200, 200) },
+  'POST /api/clubs/:clubId/requests': {
+    prepare: async (w, c) => ({
+      body: {
+        listingId: (await listed(w, c.clubId, (await extraMember(w, c.clubId)).id)).listingId,
+        message: 'For a brew day',
+      },
+    }),
+    expect: statuses(401, 404, 201, 201, 201, 403),
+  },
+  // the caller keeps the culture when they are in the club; the keeper answers
+  'POST /api/clubs/:clubId/requests/:requestId/respond': {
+    prepare: async (w, c) => {
+      const other = await extraMember(w, c.clubId);
+      const keeper = inClub(c) ? c.me!.id : other.id;
+      return {
+        vars: { requestId: await requestBetween(w, c.clubId, keeper, other.id, 'open') },
+        body: { action: 'accept' },
+      };
+    },
+    expect: statuses(401, 404, 200, 200, 200, 403),
+  },
+  // the caller asked and the keeper accepted; the one who asked confirms receipt
+  'POST /api/clubs/:clubId/requests/:requestId/receive': {
+    prepare: async (w, c) => {
+      const other = await extraMember(w, c.clubId);
+      const requester = inClub(c) ? c.me!.id : other.id;
+      return { vars: { requestId: await requestBetween(w, c.clubId, other.id, requester, 'accepted') }, body: {} };
+    },
+    expect: statuses(401, 404, 201, 201, 201, 403),
+  },
+  'GET /api/clubs/:clubId/activity': { expect: statuses(401, 404, 200, 200, 200, 200) },
   // the token is the secret: whoever holds it may read what it is for
   'POST /api/invitations/lookup': {
     prepare: async (w, c) => ({ body: { token: (await openInvitation(w, c.clubId, freshEmail())).token } }),

@@ -3,7 +3,15 @@ import { validate } from '../../middleware/validate';
 import { currentUser, requireUser } from '../../middleware/session';
 import type { ServiceContext } from '../../services/context';
 import * as clubs from '../../services/clubs';
+import * as clubBank from '../../services/clubBank';
 import {
+  ClubActivityQuerySchema,
+  ClubListingCreateSchema,
+  ClubListingParamsSchema,
+  StrainRequestCreateSchema,
+  StrainRequestParamsSchema,
+  StrainRequestReceiveSchema,
+  StrainRequestRespondSchema,
   ClubCreateSchema,
   ClubInvitationCreateSchema,
   ClubInvitationParamsSchema,
@@ -13,7 +21,7 @@ import {
   ClubUpdateSchema,
 } from './schema';
 
-type Params = { clubId: string; userId: string; invitationId: string };
+type Params = { clubId: string; userId: string; invitationId: string; listingId: string; requestId: string };
 const p = (req: Request) => req.params as unknown as Params;
 const actor = (req: Request) => currentUser(req);
 
@@ -87,6 +95,66 @@ export function clubsRouter(ctx: ServiceContext) {
     async (req, res) => {
       const { clubId, invitationId } = p(req);
       res.json({ invitation: await clubs.revokeClubInvitation(ctx, actor(req), clubId, invitationId) });
+    },
+  );
+
+  /* The bank, requests and handoffs */
+
+  router.get('/:clubId/bank', validate({ params: ClubParamsSchema }), async (req, res) => {
+    res.json({ listings: await clubBank.listBank(ctx, actor(req), p(req).clubId) });
+  });
+
+  router.post(
+    '/:clubId/bank',
+    validate({ params: ClubParamsSchema, body: ClubListingCreateSchema }),
+    async (req, res) => {
+      const listing = await clubBank.listCulture(ctx, actor(req), p(req).clubId, req.body);
+      res.status(201).json({ listing: { id: listing.id, cultureId: listing.cultureId } });
+    },
+  );
+
+  router.delete('/:clubId/bank/:listingId', validate({ params: ClubListingParamsSchema }), async (req, res) => {
+    await clubBank.withdrawListing(ctx, actor(req), p(req).clubId, p(req).listingId);
+    res.status(204).end();
+  });
+
+  router.get('/:clubId/requests', validate({ params: ClubParamsSchema }), async (req, res) => {
+    res.json({ requests: await clubBank.listRequests(ctx, actor(req), p(req).clubId) });
+  });
+
+  router.post(
+    '/:clubId/requests',
+    validate({ params: ClubParamsSchema, body: StrainRequestCreateSchema }),
+    async (req, res) => {
+      const row = await clubBank.createRequest(ctx, actor(req), p(req).clubId, req.body);
+      res.status(201).json({ request: { id: row.id, status: row.status } });
+    },
+  );
+
+  router.post(
+    '/:clubId/requests/:requestId/respond',
+    validate({ params: StrainRequestParamsSchema, body: StrainRequestRespondSchema }),
+    async (req, res) => {
+      const { clubId, requestId } = p(req);
+      res.json({ request: await clubBank.respondToRequest(ctx, actor(req), clubId, requestId, req.body) });
+    },
+  );
+
+  router.post(
+    '/:clubId/requests/:requestId/receive',
+    validate({ params: StrainRequestParamsSchema, body: StrainRequestReceiveSchema }),
+    async (req, res) => {
+      const { clubId, requestId } = p(req);
+      res.status(201).json(await clubBank.receiveHandoff(ctx, actor(req), clubId, requestId, req.body));
+    },
+  );
+
+  router.get(
+    '/:clubId/activity',
+    validate({ params: ClubParamsSchema, query: ClubActivityQuerySchema }),
+    async (req, res) => {
+      const query = req.query as unknown as { before?: string; limit: number };
+      res.json(await clubBank.listActivity(ctx, actor(req), p(req).clubId, query));
     },
   );
 

@@ -6,4 +6,11 @@ export {
   ClubMemberUpdateSchema,
   ClubInvitationParamsSchema,
   ClubInvitationCreateSchema,
+  ClubActivityQuerySchema,
+  ClubListingCreateSchema,
+  ClubListingParamsSchema,
+  StrainRequestCreateSchema,
+  StrainRequestParamsSchema,
+  StrainRequestReceiveSchema,
+  StrainRequestRespondSchema,
 } from '@barmkeep/schemas';

@@ -1,0 +1,126 @@
+import { and, desc, eq, isNull, or, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/pg-core';
+import type { DbOrTx } from './clubs';
+import {
+  clubActivity,
+  clubListings,
+  cultures,
+  notifications,
+  strainRequests,
+  users,
+  type StrainRequestRow,
+} from '../schema';
+
+export async function insertListing(db: DbOrTx, values: typeof clubListings.$inferInsert) {
+  const rows = await db.insert(clubListings).values(values).onConflictDoNothing().returning();
+  return rows[0];
+}
+
+export async function findLiveListing(db: DbOrTx, clubId: string, listingId: string) {
+  const [row] = await db
+    .select({ listing: clubListings, culture: cultures })
+    .from(clubListings)
+    .innerJoin(cultures, eq(cultures.id, clubListings.cultureId))
+    .where(and(eq(clubListings.clubId, clubId), eq(clubListings.id, listingId), isNull(clubListings.withdrawnAt)))
+    .limit(1);
+  return row;
+}
+
+export async function withdrawListing(db: DbOrTx, listingId: string, now: Date) {
+  await db.update(clubListings).set({ withdrawnAt: now }).where(eq(clubListings.id, listingId));
+}
+
+/** The live listings of a club whose keeper still belongs to it. */
+export async function listBank(db: DbOrTx, clubId: string) {
+  return db
+    .select({ listing: clubListings, culture: cultures, keeperName: users.name })
+    .from(clubListings)
+    .innerJoin(cultures, eq(cultures.id, clubListings.cultureId))
+    .innerJoin(users, eq(users.id, cultures.ownerUserId))
+    .where(
+      and(
+        eq(clubListings.clubId, clubId),
+        isNull(clubListings.withdrawnAt),
+        sql`exists (select 1 from memberships m where m.club_id = ${clubListings.clubId} and m.user_id = ${cultures.ownerUserId})`,
+      ),
+    )
+    .orderBy(cultures.strainName, clubListings.id);
+}
+
+export async function insertRequest(db: DbOrTx, values: typeof strainRequests.$inferInsert) {
+  const [row] = await db.insert(strainRequests).values(values).returning();
+  return row!;
+}
+
+export async function findRequestForUpdate(db: DbOrTx, clubId: string, requestId: string) {
+  const [row] = await db
+    .select()
+    .from(strainRequests)
+    .where(and(eq(strainRequests.clubId, clubId), eq(strainRequests.id, requestId)))
+    .for('update')
+    .limit(1);
+  return row;
+}
+
+export async function updateRequest(db: DbOrTx, requestId: string, values: Partial<StrainRequestRow>) {
+  const [row] = await db.update(strainRequests).set(values).where(eq(strainRequests.id, requestId)).returning();
+  return row!;
+}
+
+const requester = alias(users, 'requester');
+const keeper = alias(users, 'keeper');
+
+/** Requests in a club; `involving` limits them to one person's (as requester or keeper). */
+export async function listRequests(db: DbOrTx, clubId: string, involving?: string) {
+  return db
+    .select({
+      request: strainRequests,
+      strainName: cultures.strainName,
+      requesterName: requester.name,
+      keeperName: keeper.name,
+    })
+    .from(strainRequests)
+    .innerJoin(cultures, eq(cultures.id, strainRequests.cultureId))
+    .innerJoin(requester, eq(requester.id, strainRequests.requesterUserId))
+    .innerJoin(keeper, eq(keeper.id, strainRequests.keeperUserId))
+    .where(
+      and(
+        eq(strainRequests.clubId, clubId),
+        involving
+          ? or(eq(strainRequests.requesterUserId, involving), eq(strainRequests.keeperUserId, involving))
+          : undefined,
+      ),
+    )
+    .orderBy(desc(strainRequests.createdAt), desc(strainRequests.id))
+    .limit(200);
+}
+
+export async function insertActivity(db: DbOrTx, values: typeof clubActivity.$inferInsert) {
+  await db.insert(clubActivity).values(values);
+}
+
+export async function listActivity(
+  db: DbOrTx,
+  clubId: string,
+  params: { before?: { at: Date; id: string }; limit: number },
+) {
+  return db
+    .select({ activity: clubActivity, actorName: users.name })
+    .from(clubActivity)
+    .leftJoin(users, eq(users.id, clubActivity.actorUserId))
+    .where(
+      and(
+        eq(clubActivity.clubId, clubId),
+        params.before
+          ? sql`(${clubActivity.createdAt}, ${clubActivity.id}) < (${params.before.at.toISOString()}::timestamptz, ${params.before.id})`
+          : undefined,
+      ),
+    )
+    .orderBy(desc(clubActivity.createdAt), desc(clubActivity.id))
+    .limit(params.limit);
+}
+
+/** In-app notices; the reminders worker e-mails pending ones as each person chose. */
+export async function insertNotice(db: DbOrTx, values: typeof notifications.$inferInsert) {
+  await db.insert(notifications).values(values).onConflictDoNothing();
+}

@@ -1,0 +1,172 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { and, eq } from 'drizzle-orm';
+import { buildTestApp, type TestApp } from '../../../test/helpers';
+import { buildClub, signedUpPerson, type Person } from '../../../test/clubFactories';
+import { buildDregs } from '../../../test/cultureFactories';
+import { cultures, notifications } from '../../db/schema';
+
+let t: TestApp;
+let keeper: Person, asker: Person, steward: Person, outsider: Person;
+let clubId: string;
+beforeAll(async () => {
+  t = await buildTestApp();
+  [keeper, asker, steward, outsider] = (await Promise.all([
+    signedUpPerson(t, 'Keeper Kell'),
+    signedUpPerson(t, 'Asker Ash'),
+    signedUpPerson(t, 'Steward Sol'),
+    signedUpPerson(t, 'Outsider Oz'),
+  ])) as [Person, Person, Person, Person];
+  clubId = await buildClub(t, [
+    { person: keeper, role: 'owner' },
+    { person: asker, role: 'member' },
+    { person: steward, role: 'steward' },
+  ]);
+});
+afterAll(async () => {
+  await t.close();
+});
+
+const tick = () => {
+  t.clock.now = new Date(t.clock.now.getTime() + 60_000);
+};
+
+async function keeperCulture(notes = 'Private: the jar behind the pickles') {
+  const res = await keeper.agent
+    .post('/api/cultures')
+    .send({ ...buildDregs(), notes })
+    .expect(201);
+  return res.body.culture as { id: string; generation: number; strainName: string };
+}
+
+describe('club bank, requests and handoffs', () => {
+  it('passes a strain to another member with its lineage kept, notifying both', async () => {
+    const root = await keeperCulture();
+    const listing = await keeper.agent
+      .post(`/api/clubs/${clubId}/bank`)
+      .send({ cultureId: root.id, note: 'Ask any time' })
+      .expect(201);
+    await keeper.agent.post(`/api/clubs/${clubId}/bank`).send({ cultureId: root.id }).expect(409);
+
+    const bank = await asker.agent.get(`/api/clubs/${clubId}/bank`).expect(200);
+    const offered = bank.body.listings.find((l: { cultureId: string }) => l.cultureId === root.id);
+    expect(offered).toMatchObject({
+      strainName: root.strainName,
+      keeper: { name: 'Keeper Kell' },
+      canRequest: true,
+      generation: root.generation,
+    });
+    expect(offered.projectedViability).toBeGreaterThan(0);
+    expect(offered.projectedViability).toBeLessThanOrEqual(1);
+    expect(JSON.stringify(bank.body)).not.toContain('jar behind the pickles');
+    // the keeper cannot request their own culture
+    const own = await keeper.agent.get(`/api/clubs/${clubId}/bank`).expect(200);
+    expect(own.body.listings.find((l: { cultureId: string }) => l.cultureId === root.id).canRequest).toBe(false);
+
+    tick();
+    const req = await asker.agent
+      .post(`/api/clubs/${clubId}/requests`)
+      .send({ listingId: listing.body.listing.id, message: 'For a saison next month' })
+      .expect(201);
+    const requestId = req.body.request.id as string;
+    expect(req.body.request.status).toBe('open');
+    // receipt before acceptance is refused
+    await asker.agent.post(`/api/clubs/${clubId}/requests/${requestId}/receive`).send({}).expect(409);
+    // only the keeper answers
+    await asker.agent.post(`/api/clubs/${clubId}/requests/${requestId}/respond`).send({ action: 'accept' }).expect(403);
+    tick();
+    const accepted = await keeper.agent
+      .post(`/api/clubs/${clubId}/requests/${requestId}/respond`)
+      .send({ action: 'accept', note: 'Pick it up Saturday' })
+      .expect(200);
+    expect(accepted.body.request).toMatchObject({ status: 'accepted', responseNote: 'Pick it up Saturday' });
+    await keeper.agent
+      .post(`/api/clubs/${clubId}/requests/${requestId}/respond`)
+      .send({ action: 'decline' })
+      .expect(409);
+
+    tick();
+    const received = await asker.agent
+      .post(`/api/clubs/${clubId}/requests/${requestId}/receive`)
+      .send({ locationLabel: 'Fridge, top shelf', storageTempC: 3 })
+      .expect(201);
+    expect(received.body.request.status).toBe('received');
+    const [child] = await t.database.db.select().from(cultures).where(eq(cultures.id, received.body.cultureId));
+    expect(child).toMatchObject({
+      ownerUserId: asker.id,
+      parentId: root.id,
+      generation: root.generation,
+      origin: 'gift',
+    });
+    expect(child!.notes).toBe('');
+    await asker.agent.post(`/api/clubs/${clubId}/requests/${requestId}/receive`).send({}).expect(409);
+
+    // the recipient owns the new culture and sees the lineage cross owners
+    const lineage = await asker.agent.get(`/api/cultures/${child!.id}/lineage`).expect(200);
+    expect(lineage.body.rootId).toBe(root.id);
+    expect(lineage.body.nodes.map((n: { id: string }) => n.id)).toEqual([root.id, child!.id]);
+    // …but never the giver's culture itself
+    await asker.agent.get(`/api/cultures/${root.id}`).expect(404);
+    await asker.agent.get(`/api/cultures/${root.id}/events`).expect(404);
+
+    const notices = await t.database.db.select().from(notifications).where(eq(notifications.subjectId, requestId));
+    expect(notices.map((n) => n.userId).sort()).toEqual([asker.id, keeper.id, keeper.id].sort());
+
+    const activity = await steward.agent.get(`/api/clubs/${clubId}/activity?limit=2`).expect(200);
+    expect(activity.body.activity.map((a: { kind: string }) => a.kind)).toEqual([
+      'handoff_received',
+      'request_answered',
+    ]);
+    expect(activity.body.nextBefore).toEqual(expect.any(String));
+    const older = await steward.agent
+      .get(`/api/clubs/${clubId}/activity?limit=2&before=${encodeURIComponent(activity.body.nextBefore)}`)
+      .expect(200);
+    expect(older.body.activity.map((a: { kind: string }) => a.kind)).toEqual(['strain_requested', 'strain_listed']);
+    await steward.agent.get(`/api/clubs/${clubId}/activity?before=yesterday`).expect(400);
+  });
+
+  it('refuses to list someone else’s culture and hides requests from uninvolved members', async () => {
+    const root = await keeperCulture();
+    const res = await asker.agent.post(`/api/clubs/${clubId}/bank`).send({ cultureId: root.id }).expect(400);
+    expect(res.body.error.fields['body.cultureId']).toBeDefined();
+    await outsider.agent.get(`/api/clubs/${clubId}/bank`).expect(404);
+    const listing = await keeper.agent.post(`/api/clubs/${clubId}/bank`).send({ cultureId: root.id }).expect(201);
+    await steward.agent
+      .post(`/api/clubs/${clubId}/requests`)
+      .send({ listingId: listing.body.listing.id, message: 'Steward wants some' })
+      .expect(201);
+    const asAsker = await asker.agent.get(`/api/clubs/${clubId}/requests`).expect(200);
+    expect(asAsker.body.requests.some((r: { message: string }) => r.message === 'Steward wants some')).toBe(false);
+    const asKeeper = await keeper.agent.get(`/api/clubs/${clubId}/requests`).expect(200);
+    expect(asKeeper.body.requests.some((r: { message: string }) => r.message === 'Steward wants some')).toBe(true);
+  });
+
+  it('needs a steward’s approval first when the club asks for it', async () => {
+    await keeper.agent.patch(`/api/clubs/${clubId}`).send({ requestsNeedApproval: true }).expect(200);
+    try {
+      const root = await keeperCulture();
+      const listing = await keeper.agent.post(`/api/clubs/${clubId}/bank`).send({ cultureId: root.id }).expect(201);
+      const req = await asker.agent
+        .post(`/api/clubs/${clubId}/requests`)
+        .send({ listingId: listing.body.listing.id })
+        .expect(201);
+      expect(req.body.request.status).toBe('awaiting_approval');
+      const id = req.body.request.id;
+      await keeper.agent.post(`/api/clubs/${clubId}/requests/${id}/respond`).send({ action: 'accept' }).expect(409);
+      await asker.agent.post(`/api/clubs/${clubId}/requests/${id}/respond`).send({ action: 'approve' }).expect(403);
+      await steward.agent.post(`/api/clubs/${clubId}/requests/${id}/respond`).send({ action: 'approve' }).expect(200);
+      const notice = await t.database.db
+        .select()
+        .from(notifications)
+        .where(and(eq(notifications.subjectId, id), eq(notifications.userId, keeper.id)));
+      expect(notice).toHaveLength(1);
+      await keeper.agent.post(`/api/clubs/${clubId}/requests/${id}/respond`).send({ action: 'propose' }).expect(400);
+      const proposed = await keeper.agent
+        .post(`/api/clubs/${clubId}/requests/${id}/respond`)
+        .send({ action: 'propose', proposedAt: new Date(Date.now() + 7 * 86_400_000).toISOString(), note: 'Next week' })
+        .expect(200);
+      expect(proposed.body.request.status).toBe('proposed');
+    } finally {
+      await keeper.agent.patch(`/api/clubs/${clubId}`).send({ requestsNeedApproval: false }).expect(200);
+    }
+  });
+});
