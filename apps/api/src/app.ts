@@ -26,6 +26,8 @@ import { batchesRouter } from './routes/batches/batches';
 import { equipmentRouter } from './routes/equipment/equipment';
 import { notificationsRouter, reminderPreferencesRouter } from './routes/notifications/notifications';
 import { emailPreferencesRouter, oneClickUnsubscribeRouter } from './routes/emailPreferences/emailPreferences';
+import { calendarFeedRouter, calendarFileRouter } from './routes/calendar/calendar';
+import { labelsRouter } from './routes/labels/labels';
 import { culturePhotosRouter } from './routes/cultures/photos';
 import { createStorage, type ObjectStorage } from './storage';
 
@@ -97,6 +99,9 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   api.use('/notifications', notificationsRouter(ctx));
   api.use('/reminder-preferences', reminderPreferencesRouter(ctx));
   api.use('/email-preferences', emailPreferencesRouter(ctx));
+  api.use('/calendar-feed', calendarFeedRouter(ctx));
+  api.use('/calendar', calendarFileRouter(ctx));
+  api.use('/labels', labelsRouter(ctx));
   if (deps.inbox) api.use('/dev/mail', devMailRouter(deps.inbox));
   api.use(apiNotFound);
   app.use('/api', api);

@@ -24,6 +24,7 @@ export const planStepRule: ReminderRule = {
     const events = await listPlannedEvents(db, {
       ...(userIds ? { userIds } : {}),
       from: now,
+      now,
       to: new Date(now.getTime() + MAX_LEAD_HOURS * 3_600_000),
     });
     if (events.length === 0) return [];

@@ -1,0 +1,2 @@
+export { LabelListSchema, LabelPngQuerySchema } from '@barmkeep/schemas';
+export { CultureIdParamsSchema } from '@barmkeep/schemas';
