@@ -41,6 +41,14 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           children: [
             { index: true, lazy: () => import('./routes/home') },
             { path: 'account', lazy: () => import('./routes/account') },
+            { path: 'plans', lazy: () => import('./routes/plans') },
+            { path: 'plans/new', lazy: () => import('./routes/plan-new') },
+            { path: 'plans/:id', lazy: () => import('./routes/plan') },
+            { path: 'batches', lazy: () => import('./routes/batches') },
+            { path: 'batches/new', lazy: () => import('./routes/batch-new') },
+            // recharts loads only with this page
+            { path: 'batches/generations', lazy: () => import('./routes/generations') },
+            { path: 'batches/:id', lazy: () => import('./routes/batch') },
             { path: 'cultures', lazy: () => import('./routes/cultures/library') },
             { path: 'cultures/new', lazy: () => import('./routes/cultures/new') },
             { path: 'cultures/:id', lazy: () => import('./routes/cultures/detail') },

@@ -9,6 +9,7 @@ import { Brand } from './Brand';
 
 const navItems = [
   { to: '/', label: 'Cultures', end: true },
+  { to: '/plans', label: 'Brew day', end: false },
   { to: '/clubs', label: 'Clubs', end: false },
   { to: '/account', label: 'Account', end: false },
 ] as const;

@@ -19,6 +19,7 @@ import {
   type SelectOption,
 } from '../components';
 import { applyApiError } from '../lib/formErrors';
+import { EquipmentSection } from '../components/planning/EquipmentSection';
 
 /** On the account page every setting is required; the API also accepts partial updates. */
 const AccountFormSchema = AccountUpdateSchema.required();
@@ -252,6 +253,7 @@ export function Component() {
         <>
           <AccountForm user={user} />
           <PasswordForm />
+          <EquipmentSection user={user} />
         </>
       ) : (
         <Loading />

@@ -1,0 +1,177 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { useQuery } from '@tanstack/react-query';
+import { useNavigate, useSearchParams } from 'react-router';
+import type { PlanDto, UserDto } from '@barmkeep/schemas';
+import { sgFromPlato, usGallonsFromLitres } from '@barmkeep/core';
+import { authQueries } from '../api/auth/queries';
+import { planningQueries } from '../api/planning/queries';
+import { useCreateBatchMutation } from '../api/planning/mutations';
+import { isApiError } from '../api/client';
+import { Button, Card, FormAlert, Loading, Notice, PageHeader, TextField } from '../components';
+import {
+  formatCells,
+  instantFromLocalInput,
+  litresFromBatchInput,
+  localInputOf,
+  sgFromInput,
+} from '../lib/planningFormat';
+
+interface Values {
+  name: string;
+  brewedLocal: string;
+  volume: string;
+  og: string;
+  fg: string;
+  tempC: string;
+  lagHours: string;
+  cellsBillions: string;
+  notes: string;
+  usedUp: boolean;
+}
+
+function BatchForm({ user, plan }: { user: UserDto; plan: PlanDto | null }) {
+  const navigate = useNavigate();
+  const create = useCreateBatchMutation();
+  const [error, setError] = useState<string | undefined>();
+  const [fields, setFields] = useState<Record<string, string>>({});
+  const gravity = (plato: number) => (user.gravityUnit === 'plato' ? plato.toFixed(1) : sgFromPlato(plato).toFixed(3));
+  const { register, handleSubmit } = useForm<Values>({
+    defaultValues: {
+      name: plan?.name ?? '',
+      brewedLocal: localInputOf(new Date(), user.timeZone),
+      volume: plan?.batchVolumeL
+        ? String(
+            user.unitSystem === 'us' ? Number(usGallonsFromLitres(plan.batchVolumeL).toFixed(2)) : plan.batchVolumeL,
+          )
+        : '',
+      og: plan?.ogPlato ? gravity(plan.ogPlato) : '',
+      fg: '',
+      tempC: '',
+      lagHours: '',
+      cellsBillions: plan ? (plan.computed.final.cells / 1e9).toFixed(0) : '',
+      notes: '',
+      usedUp: true,
+    },
+  });
+  const cultures = plan?.cultures.filter((c) => c.available) ?? [];
+  const n = (s: string) => (s.trim() === '' ? undefined : Number(s.replace(',', '.')));
+  const onSubmit = handleSubmit(async (v) => {
+    setError(undefined);
+    setFields({});
+    const brewedAt = instantFromLocalInput(v.brewedLocal, user.timeZone);
+    const cells = n(v.cellsBillions);
+    const og = n(v.og);
+    const fg = n(v.fg);
+    const volume = n(v.volume);
+    try {
+      const batch = await create.mutateAsync({
+        name: v.name,
+        brewedAt: brewedAt?.toISOString() ?? '',
+        volumeL: volume === undefined ? (undefined as never) : litresFromBatchInput(volume, user.unitSystem),
+        ogSg: og === undefined ? (undefined as never) : sgFromInput(og, user.gravityUnit),
+        ...(fg !== undefined ? { fgSg: sgFromInput(fg, user.gravityUnit) } : {}),
+        ...(n(v.tempC) !== undefined ? { fermentationTempC: n(v.tempC) } : {}),
+        ...(n(v.lagHours) !== undefined ? { lagHours: n(v.lagHours) } : {}),
+        notes: v.notes,
+        ...(plan ? { planId: plan.id } : {}),
+        pitches: cultures.map((c, i) => ({
+          cultureId: c.id,
+          ...(cells !== undefined && i === 0 ? { cellsPitched: cells * 1e9 } : {}),
+        })),
+        usedUp: v.usedUp,
+      });
+      navigate(`/batches/${batch.id}`);
+    } catch (err) {
+      if (isApiError(err)) {
+        const map: Record<string, string> = {
+          volumeL: 'volume',
+          ogSg: 'og',
+          fgSg: 'fg',
+          brewedAt: 'brewedLocal',
+          fermentationTempC: 'tempC',
+        };
+        const f: Record<string, string> = {};
+        for (const [k, m] of Object.entries(err.fields)) {
+          const key = k.replace(/^body\./, '').split('.')[0]!;
+          f[map[key] ?? key] = m.join(' ');
+        }
+        setFields(f);
+        setError(err.message);
+      } else setError('Something unexpected went wrong. Try again.');
+    }
+  });
+  if (cultures.length === 0) {
+    return (
+      <Notice tone="warning" title="Start from a plan">
+        Open the starter plan you are pitching and choose “Pitch into a batch”.
+      </Notice>
+    );
+  }
+  const g = user.gravityUnit === 'plato' ? '°P' : 'SG';
+  return (
+    <form onSubmit={onSubmit} noValidate className="max-w-xl space-y-5" aria-label="Record the batch">
+      <FormAlert message={error} />
+      <Card className="space-y-4">
+        <p>
+          Pitching <strong>{cultures.map((c) => c.strainName).join(' + ')}</strong>. Each culture gets a “pitched” entry
+          in its log.
+        </p>
+        <TextField label="Batch name" error={fields.name} {...register('name')} />
+        <TextField label="Brewed on" type="datetime-local" error={fields.brewedLocal} {...register('brewedLocal')} />
+        <TextField
+          label={user.unitSystem === 'us' ? 'Volume (US gallons)' : 'Volume (litres)'}
+          inputMode="decimal"
+          error={fields.volume}
+          {...register('volume')}
+        />
+        <TextField label={`Original gravity (${g})`} inputMode="decimal" error={fields.og} {...register('og')} />
+        <TextField
+          label="Viable cells pitched (billions)"
+          inputMode="decimal"
+          hint={plan ? `The plan expects ${formatCells(plan.computed.final.cells)}.` : undefined}
+          error={fields.cellsPitched}
+          {...register('cellsBillions')}
+        />
+        <label className="flex min-h-11 items-center gap-3">
+          <input type="checkbox" className="size-5 accent-accent" {...register('usedUp')} />
+          The whole culture went in (mark it pitched)
+        </label>
+      </Card>
+      <Card className="space-y-4">
+        <h2 className="font-semibold">Results (fill in later if you like)</h2>
+        <TextField label={`Final gravity (${g})`} inputMode="decimal" error={fields.fg} {...register('fg')} />
+        <TextField
+          label="Fermentation temperature (°C)"
+          inputMode="decimal"
+          error={fields.tempC}
+          {...register('tempC')}
+        />
+        <TextField
+          label="Lag time: hours to visible activity"
+          inputMode="decimal"
+          error={fields.lagHours}
+          {...register('lagHours')}
+        />
+        <TextField label="Notes" error={fields.notes} {...register('notes')} />
+      </Card>
+      <Button type="submit" busy={create.isPending} busyLabel="Saving…">
+        Record batch and pitch
+      </Button>
+    </form>
+  );
+}
+
+export function Component() {
+  const [params] = useSearchParams();
+  const planId = params.get('planId');
+  const me = useQuery(authQueries.me());
+  const plan = useQuery({ ...planningQueries.plan(planId ?? ''), enabled: !!planId });
+  if (!me.data || (planId && plan.isPending)) return <Loading />;
+  return (
+    <>
+      <PageHeader title="Pitch into a batch" description="Record the brew and the yeast that went in." />
+      <BatchForm user={me.data} plan={plan.data ?? null} />
+    </>
+  );
+}

@@ -1,0 +1,94 @@
+import { test, expect } from '@playwright/test';
+import { shot, signUpThroughForm } from './support';
+
+test('plan a lager from bottle dregs, log a counted step, pitch, harvest, and see the generations', async ({
+  page,
+  baseURL,
+}) => {
+  test.setTimeout(120_000);
+  await signUpThroughForm(page);
+
+  // a jar of sediment from two bottles of an invented beer (the culture library's own API)
+  const made = await page.request.post('/api/cultures', {
+    headers: { Origin: baseURL! },
+    data: {
+      strainName: 'Millrace Kellerbier dregs',
+      form: 'bottle_dregs',
+      origin: { origin: 'bottle_dregs', beerName: 'Millrace Kellerbier', bottleCount: 2, pasteurized: 'no' },
+      storageTempC: 4,
+      madeAt: new Date(Date.now() - 3_600_000).toISOString(),
+    },
+  });
+  expect(made.status()).toBe(201);
+  const cultureId = (await made.json()).culture.id as string;
+
+  await page.getByRole('link', { name: 'Brew day' }).first().click();
+  await page.getByRole('link', { name: 'Plan a starter' }).first().click();
+  await expect(page.getByRole('heading', { name: 'Plan a starter', level: 1 })).toBeVisible();
+  await page.getByLabel(/Millrace Kellerbier dregs/).check();
+  await page.getByLabel('Batch volume (litres)').fill('20');
+  await page.getByLabel('Original gravity (SG)').fill('1.048');
+  await page.getByLabel('Kind of beer (sets the pitch rate)').selectOption('lager');
+
+  // the ladder appears and recomputes as the person types
+  const ladder = page.getByTestId('ladder-step');
+  await expect(ladder.first()).toBeVisible();
+  expect(await ladder.count()).toBeGreaterThanOrEqual(2);
+  await expect(ladder.first()).toContainText('1.022');
+  await expect(ladder.first()).toContainText('liquid extract');
+  await expect(page.getByTestId('verdict')).toBeVisible();
+  await expect(page.getByText(/never a sealed lid/)).toBeVisible();
+  const at20 = await page.getByTestId('ladder').innerText();
+  await page.getByLabel('Batch volume (litres)').fill('40');
+  await expect.poll(async () => page.getByTestId('ladder').innerText()).not.toBe(at20);
+  await page.getByLabel('Batch volume (litres)').fill('20');
+  await shot(page, 'brew-01-planner');
+
+  await page.getByLabel('Name of the plan').fill('Millrace Helles, spring');
+  await page.getByRole('button', { name: 'Save plan' }).click();
+  await expect(page.getByRole('heading', { name: 'Millrace Helles, spring', level: 1 })).toBeVisible();
+  await expect(page.getByText('Starter under way')).toHaveCount(0);
+  const savedLadder = page.getByTestId('ladder-step');
+  const beforeFirst = await savedLadder.first().innerText();
+  await shot(page, 'brew-02-saved-plan');
+
+  // start the first step, then complete it with a low count: the rest is re-planned
+  await page.getByRole('button', { name: 'Start step 1' }).click();
+  await expect(page.getByTestId('logged-step')).toContainText('under way');
+  const pending = await page.getByTestId('ladder').innerText();
+  await page.getByLabel('Cells counted').fill('30');
+  await page.getByLabel('Medium squares counted').fill('5');
+  await page.getByLabel('Dilution factor (stain included)').fill('2');
+  await page.getByRole('button', { name: 'Complete step 1' }).click();
+  await expect(page.getByTestId('logged-step')).toContainText('of predicted');
+  await expect.poll(async () => page.getByTestId('ladder').innerText()).not.toBe(pending);
+  expect(await page.getByTestId('ladder-step').first().innerText()).not.toBe(beforeFirst);
+  await shot(page, 'brew-03-after-count');
+
+  // pitch into a batch
+  await page.getByRole('link', { name: 'Pitch into a batch' }).click();
+  await expect(page.getByLabel('Batch name')).toHaveValue('Millrace Helles, spring');
+  await page.getByLabel('Final gravity (SG)').fill('1.010');
+  await page.getByLabel('Lag time: hours to visible activity').fill('16');
+  await page.getByRole('button', { name: 'Record batch and pitch' }).click();
+  await expect(page.getByRole('heading', { name: 'Millrace Helles, spring', level: 1 })).toBeVisible();
+  await expect(page.getByTestId('batch-derived')).toContainText('% ABV');
+  await shot(page, 'brew-04-batch');
+
+  // harvest slurry: a new culture one generation on, in the lineage
+  await page.getByLabel('Slurry volume (mL)').fill('150');
+  await page.getByRole('button', { name: 'Save harvested slurry' }).click();
+  await expect(page.getByText('saved as generation 1')).toBeVisible();
+  await page.getByRole('link', { name: 'Open the new culture' }).click();
+  await expect(page).toHaveURL(/\/cultures\/[^/]+$/);
+  const childUrl = page.url();
+  await page.goto(`/cultures/${cultureId}/lineage`);
+  await expect(page.getByText(/gen 1/).first()).toBeVisible();
+  await shot(page, 'brew-05-lineage');
+
+  // the batch in the generation chart
+  await page.goto(`/batches/generations?cultureId=${childUrl.split('/').pop()}`);
+  await expect(page.getByTestId('generation-chart')).toBeVisible();
+  await expect(page.getByRole('cell', { name: 'Millrace Helles, spring' })).toBeVisible();
+  await shot(page, 'brew-06-generations');
+});
