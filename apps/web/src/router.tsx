@@ -31,6 +31,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           lazy: () => import('./layouts/AuthLayout'),
           children: [
             { path: 'reset-password', lazy: () => import('./routes/reset-password') },
+            { path: 'email-preferences/:token', lazy: () => import('./routes/email-preferences') },
             { path: 'invitation', lazy: () => import('./routes/invitation') },
           ],
         },
@@ -41,6 +42,9 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           children: [
             { index: true, lazy: () => import('./routes/home') },
             { path: 'account', lazy: () => import('./routes/account') },
+            { path: 'notifications', lazy: () => import('./routes/notifications') },
+            { path: 'labels', lazy: () => import('./routes/labels') },
+            { path: 'cultures/:id/quick', lazy: () => import('./routes/culture-quick-log') },
             { path: 'plans', lazy: () => import('./routes/plans') },
             { path: 'plans/new', lazy: () => import('./routes/plan-new') },
             { path: 'plans/:id', lazy: () => import('./routes/plan') },

@@ -57,24 +57,26 @@ const wholeNumber = (what: string, min: number, max: number) =>
     .min(min, `${what[0]!.toUpperCase()}${what.slice(1)} must be at least ${min}`)
     .max(max, `${what[0]!.toUpperCase()}${what.slice(1)} must be at most ${max}`);
 
-export const NotificationPreferencesUpdateSchema = z
-  .object({
-    emailDelivery: z.enum(EMAIL_DELIVERIES, { error: 'Choose how to receive e-mail' }),
-    digestHour: wholeNumber('the digest hour', 0, 23),
-    viabilityThresholdPct: wholeNumber(
-      'the viability threshold',
-      reminderLimits.thresholdMinPct,
-      reminderLimits.thresholdMaxPct,
-    ),
-    warnDays: wholeNumber('the days of warning', 0, reminderLimits.warnDaysMax),
-    generationLimit: wholeNumber('the generation limit', 1, reminderLimits.generationLimitMax),
-    stepLeadHours: wholeNumber('the hours before a step', 0, reminderLimits.stepLeadHoursMax),
-    mutedKinds: z
-      .array(z.enum(NOTIFICATION_KINDS))
-      .max(NOTIFICATION_KINDS.length)
-      .transform((k) => [...new Set(k)]),
-  })
-  .partial()
+/** Every reminder setting, as the account page's form holds them. */
+export const NotificationPreferencesFormSchema = z.object({
+  emailDelivery: z.enum(EMAIL_DELIVERIES, { error: 'Choose how to receive e-mail' }),
+  digestHour: wholeNumber('the digest hour', 0, 23),
+  viabilityThresholdPct: wholeNumber(
+    'the viability threshold',
+    reminderLimits.thresholdMinPct,
+    reminderLimits.thresholdMaxPct,
+  ),
+  warnDays: wholeNumber('the days of warning', 0, reminderLimits.warnDaysMax),
+  generationLimit: wholeNumber('the generation limit', 1, reminderLimits.generationLimitMax),
+  stepLeadHours: wholeNumber('the hours before a step', 0, reminderLimits.stepLeadHoursMax),
+  mutedKinds: z
+    .array(z.enum(NOTIFICATION_KINDS))
+    .max(NOTIFICATION_KINDS.length)
+    .transform((k) => [...new Set(k)]),
+});
+export type NotificationPreferencesFormInput = z.input<typeof NotificationPreferencesFormSchema>;
+
+export const NotificationPreferencesUpdateSchema = NotificationPreferencesFormSchema.partial()
   .strict()
   .refine((v) => Object.keys(v).length > 0, 'Nothing to change');
 export type NotificationPreferencesUpdateInput = z.input<typeof NotificationPreferencesUpdateSchema>;

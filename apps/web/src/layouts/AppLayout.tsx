@@ -6,6 +6,7 @@ import { useSignOutMutation } from '../api/auth/mutations';
 import { Button, Loading, Notice, cx } from '../components';
 import { signInPathFor } from '../routes/guards';
 import { Brand } from './Brand';
+import { NotificationsBell } from '../components/reminders/NotificationsBell';
 
 const navItems = [
   { to: '/', label: 'Cultures', end: true },
@@ -78,6 +79,7 @@ export function Component() {
             <Brand />
             <MainNav className="hidden sm:block" />
             <div className="ml-auto flex min-w-0 items-center gap-3">
+              <NotificationsBell />
               <PersonName name={user.name} email={user.email} className="hidden sm:inline" />
               <Button
                 variant="secondary"

@@ -19,6 +19,8 @@ import {
   type SelectOption,
 } from '../components';
 import { applyApiError } from '../lib/formErrors';
+import { ReminderSettings } from '../components/reminders/ReminderSettings';
+import { CalendarFeedSettings } from '../components/reminders/CalendarFeedSettings';
 import { EquipmentSection } from '../components/planning/EquipmentSection';
 
 /** On the account page every setting is required; the API also accepts partial updates. */
@@ -253,6 +255,8 @@ export function Component() {
         <>
           <AccountForm user={user} />
           <PasswordForm />
+          <ReminderSettings />
+          <CalendarFeedSettings />
           <EquipmentSection user={user} />
         </>
       ) : (
