@@ -79,9 +79,10 @@ export interface AccessEntry {
   prepare?: (w: AccessWorld, c: AccessCase) => Promise<Prepared>;
   /** a fixed JSON body, when prepare gives none */
   body?: object;
-  /** what the route deliberately shows to callers outside the club, e.g. an invitation's preview
-   * of the club it is for (the token is the proof) */
-  shows?: 'club-about';
+  /** what the route deliberately shows to whoever holds its secret: 'club-about' (an invitation's
+   * preview of its club) or 'holder' (the holder's own data, e.g. a calendar feed by its secret
+   * address) */
+  shows?: 'club-about' | 'holder';
 }
 
 /** 'METHOD /api/full/path/:param' → entry, exactly as the router declares the path. */

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
 import {
@@ -37,7 +37,7 @@ function Form({ prefs }: { prefs: NotificationPreferencesDto }) {
     register,
     handleSubmit,
     setError,
-    watch,
+    control,
     reset,
     formState: { errors, isSubmitting, isDirty },
   } = useForm({
@@ -51,7 +51,7 @@ function Form({ prefs }: { prefs: NotificationPreferencesDto }) {
       stepLeadHours: prefs.stepLeadHours,
     },
   });
-  const delivery = watch('emailDelivery');
+  const delivery = useWatch({ control, name: 'emailDelivery' });
   const mutedChanged = [...muted].sort().join() !== [...savedMuted].sort().join();
   const onSubmit = handleSubmit(async (values) => {
     try {
