@@ -463,7 +463,7 @@ export function Component() {
             <Fact label="Origin">{originLabels[c.origin]}</Fact>
             <OriginFacts c={c} />
             <Fact label={c.origin === 'purchased' ? 'Made on' : 'Harvested or made'}>{formatDate(c.madeAt)} (<span className="num">{c.ageDays}</span> d)</Fact>
-            <Fact label="Kept">{c.locationLabel || '—'}, <span className="num">{c.storageTempC} °C</span></Fact>
+            <Fact label="Kept">{c.locationLabel ? `${c.locationLabel}, ` : ""}<span className="num">{c.storageTempC} °C</span></Fact>
             {c.parentId ? <Fact label="Parent"><Link className="text-accent underline" to={`/cultures/${c.parentId}`}>open</Link></Fact> : null}
             <Fact label="State since">{formatDateTime(c.stateChangedAt)}{c.stateChangedBy ? `, by ${c.stateChangedBy.name}` : ''}</Fact>
             {c.species ? <Fact label="Species"><i>{c.species}</i></Fact> : null}

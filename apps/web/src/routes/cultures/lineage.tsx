@@ -103,18 +103,16 @@ export function Component() {
               const danger = d.suspect || d.state === 'quarantined';
               return (
                 <g key={d.id} transform={`translate(${n.y}, ${n.x - NODE_H / 2})`} role="treeitem" aria-level={n.depth + 1} aria-selected={isFocus}>
-                  <rect
-                    width={NODE_W}
-                    height={NODE_H}
-                    rx={5}
-                    fill={isFocus ? 'var(--color-accent-soft)' : 'var(--color-paper)'}
-                    stroke={danger ? 'var(--color-danger)' : isFocus ? 'var(--color-accent)' : 'var(--color-rule-strong)'}
-                    strokeWidth={danger || isFocus ? 2 : 1}
-                    className={d.visible ? 'cursor-pointer' : undefined}
-                    onClick={() => d.visible && navigate(`/cultures/${d.id}`)}
-                  />
                   {d.visible ? (
                     <a href={`/cultures/${d.id}`} onClick={(e) => { e.preventDefault(); navigate(`/cultures/${d.id}`); }}>
+                      <rect
+                        width={NODE_W}
+                        height={NODE_H}
+                        rx={5}
+                        fill={isFocus ? 'var(--color-accent-soft)' : 'var(--color-paper)'}
+                        stroke={danger ? 'var(--color-danger)' : isFocus ? 'var(--color-accent)' : 'var(--color-rule-strong)'}
+                        strokeWidth={danger || isFocus ? 2 : 1}
+                      />
                       <text x={7} y={15} fontSize={12} fontWeight={600} fill="var(--color-ink)">
                         {(d.strainName ?? '').slice(0, 24)}{(d.strainName ?? '').length > 24 ? '…' : ''}
                       </text>
@@ -124,7 +122,10 @@ export function Component() {
                       <title>{`${d.strainName} — generation ${d.generation}, ${d.state ? stateLabels[d.state] : ''}${d.owner ? `, kept by ${d.owner.name}` : ''}${d.suspect ? ', suspect' : ''}`}</title>
                     </a>
                   ) : (
-                    <text x={7} y={23} fontSize={12} fill="var(--color-ink-faint)">not shared with you</text>
+                    <>
+                      <rect width={NODE_W} height={NODE_H} rx={5} fill="var(--color-paper-sunk)" stroke="var(--color-rule)" />
+                      <text x={7} y={23} fontSize={12} fill="var(--color-ink-faint)">not shared with you</text>
+                    </>
                   )}
                   {n.hidden || (n.children && root.find((r) => r.id === d.id)?.children) ? (
                     n.hidden ? (
