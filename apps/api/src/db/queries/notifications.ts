@@ -36,6 +36,40 @@ export async function insertNotices(db: Executor, notices: NewNotice[], now: Dat
   return inserted;
 }
 
+/**
+ * The rule engine's insert: every notice of a pass as one JSON parameter per 5,000, expanded in
+ * SQL (jsonb_to_recordset), ON CONFLICT DO NOTHING on the dedupe key. Returns the ids stored.
+ */
+export async function insertNoticesBulk(
+  db: Executor,
+  notices: NewNotice[],
+  now: Date,
+): Promise<{ id: string; userId: string }[]> {
+  const out: { id: string; userId: string }[] = [];
+  for (let i = 0; i < notices.length; i += 5000) {
+    const chunk = notices.slice(i, i + 5000).map((n) => ({
+      id: newId(),
+      user_id: n.userId,
+      kind: n.kind,
+      subject_id: n.subjectId,
+      dedupe_key: n.dedupeKey,
+      title: n.title,
+      body: n.body ?? '',
+      link: n.link ?? '/',
+      due_at: n.dueAt ? n.dueAt.toISOString() : null,
+    }));
+    const { rows } = await db.execute<{ id: string; user_id: string }>(sql`
+      insert into notifications (id, user_id, kind, subject_id, dedupe_key, title, body, link, due_at, created_at)
+      select r.id, r.user_id, r.kind, r.subject_id, r.dedupe_key, r.title, r.body, r.link, r.due_at, ${now}::timestamptz
+      from jsonb_to_recordset(${JSON.stringify(chunk)}::jsonb) as r(id text, user_id text, kind text, subject_id text,
+        dedupe_key text, title text, body text, link text, due_at timestamptz)
+      on conflict (user_id, kind, subject_id, dedupe_key) do nothing
+      returning id, user_id`);
+    out.push(...rows.map((r) => ({ id: r.id, userId: r.user_id })));
+  }
+  return out;
+}
+
 export async function listNoticesForUser(
   db: Executor,
   params: { userId: string; unreadOnly: boolean; limit: number; before?: Date },

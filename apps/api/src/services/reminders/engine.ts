@@ -1,5 +1,4 @@
-import { insertNotices, type NewNotice } from '../../db/queries/notifications';
-import type { NotificationRow } from '../../db/schema';
+import { insertNoticesBulk, type NewNotice } from '../../db/queries/notifications';
 import type { ReminderRule, RuleRunContext } from './types';
 import { viabilityRule } from './rules/viability';
 import { storageRule } from './rules/storage';
@@ -18,7 +17,7 @@ export const REMINDER_RULES: readonly ReminderRule[] = [
 
 export interface PassResult {
   candidates: number;
-  inserted: NotificationRow[];
+  inserted: { id: string; userId: string }[];
   byRule: Record<string, number>;
 }
 
@@ -38,6 +37,6 @@ export async function runReminderPass(
     byRule[rule.kind] = found.length;
     all.push(...found);
   }
-  const inserted = await insertNotices(ctx.db, all, ctx.now);
+  const inserted = await insertNoticesBulk(ctx.db, all, ctx.now);
   return { candidates: all.length, inserted, byRule };
 }

@@ -46,6 +46,7 @@ export const storageRule: ReminderRule = {
         ${noticeExists(KIND, key('warn'))} as warn_sent
       ${scope.from}
       where ${scope.where} and c.attention_due_at is not null
+        and c.attention_due_at < ${now}::timestamptz + make_interval(days => ${pref.warnDays} + 2)
         and ${dueLocal} - ${pref.warnDays} <= ${localToday}
         and not ${noticeExists(KIND, key('due'))}`);
 

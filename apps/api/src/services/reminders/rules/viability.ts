@@ -6,6 +6,7 @@ import { asDate, capitalize, cultureWords, calendarDaysUntil, dayWords, epochKey
 import { cultureScope, epochKeySql, noticeExists, pref } from '../sql';
 
 const KIND = 'culture.viability';
+const DAY = 86_400_000;
 
 interface Row extends Record<string, unknown> {
   id: string;
@@ -58,6 +59,8 @@ export const viabilityRule: ReminderRule = {
         ...(r.start_viability != null ? { startViability: r.start_viability } : {}),
       });
       if (!crossing.at) continue;
+      // far from the window: no need to work out local calendar days (they differ from elapsed days by under 2)
+      if (crossing.at.getTime() - now.getTime() > (r.warn_days + 2) * DAY) continue;
       const daysLeft = calendarDaysUntil(crossing.at, now, r.time_zone);
       const stage = daysLeft <= 0 ? 'due' : daysLeft <= r.warn_days ? 'warn' : null;
       if (!stage || (stage === 'warn' && r.warn_sent)) continue;
