@@ -8,10 +8,10 @@ import type {
 } from '@barmkeep/schemas';
 import { maxStorageDays } from '@barmkeep/core';
 import type { CultureEventRow, CulturePhotoRow, CultureRow } from '../db/schema';
-import type { LineageRow } from '../db/queries/cultures';
+import type { CultureSummaryRow, LineageRow } from '../db/queries/cultures';
 import { ageDaysOf, daysUntil, projectedViabilityOf } from '../services/cultureHealth';
 
-export function presentCultureSummary(c: CultureRow, now: Date, projected?: number): CultureSummaryDto {
+export function presentCultureSummary(c: CultureSummaryRow, now: Date, projected?: number): CultureSummaryDto {
   const viability = projected ?? projectedViabilityOf(c, now).viability;
   return {
     id: c.id,
