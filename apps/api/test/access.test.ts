@@ -1,13 +1,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { readdirSync, existsSync } from 'node:fs';
-import path from 'node:path';
-import { pathToFileURL } from 'node:url';
 import { eq } from 'drizzle-orm';
 import { buildTestApp, type TestApp } from './helpers';
 import { memberships } from '../src/db/schema';
 import { listRoutes } from './access/routes';
 import { buildWorld } from './access/world';
-import { ROLES, SCOPES, type AccessCase, type AccessEntry, type AccessTable } from './access/types';
+import { loadAccessTables } from './access/tables';
+import { send, urlOf } from './access/send';
+import { ROLES, SCOPES, type AccessCase, type AccessEntry } from './access/types';
 
 /**
  * The authorization matrix over EVERY API route. Routes are read from the app's router stack; the
@@ -19,27 +18,7 @@ import { ROLES, SCOPES, type AccessCase, type AccessEntry, type AccessTable } fr
  * rows carry a private mark, and a response to anyone else holding it is a leak.
  */
 
-const routesDir = path.resolve(import.meta.dirname, '../src/routes');
-const tableFiles = readdirSync(routesDir)
-  .map((dir) => path.join(routesDir, dir, 'access.ts'))
-  .filter((f) => existsSync(f));
-
-const tables: { file: string; table: AccessTable }[] = await Promise.all(
-  tableFiles.map(async (file) => ({
-    file,
-    table: ((await import(pathToFileURL(file).href)) as { access: AccessTable }).access,
-  })),
-);
-
-const entries = new Map<string, { entry: AccessEntry; file: string }>();
-const duplicates: string[] = [];
-for (const { file, table } of tables) {
-  for (const [route, entry] of Object.entries(table)) {
-    if (entries.has(route))
-      duplicates.push(`${route} (in ${path.relative(routesDir, file)} and ${entries.get(route)!.file})`);
-    entries.set(route, { entry, file: path.relative(routesDir, file) });
-  }
-}
+const { entries, duplicates } = await loadAccessTables();
 
 let t: TestApp;
 let w: Awaited<ReturnType<typeof buildWorld>>;
@@ -123,25 +102,8 @@ describe('authorization matrix: every route × role × scope', () => {
     const c: AccessCase = { role, scope, me, holder, clubId };
     const prepared = (await entry.prepare?.(w, c)) ?? {};
     const vars: Record<string, string> = { clubId, ...prepared.vars };
-    const [method, template] = route.split(' ') as [string, string];
-    const url = template.replace(/:(\w+)/g, (_, name: string) => {
-      if (!(name in vars))
-        throw new Error(
-          `${route}: the access entry gives no value for :${name} (return it from prepare as vars.${name})`,
-        );
-      return encodeURIComponent(vars[name]!);
-    });
-    const agent = prepared.agent ?? me?.agent ?? t.agent();
-    let call = agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete'](url);
-    if (prepared.query) call = call.query(prepared.query);
-    let res;
-    if (prepared.attach) {
-      for (const [k, v] of Object.entries(prepared.attach.fields ?? {})) call = call.field(k, v);
-      res = await call.attach(prepared.attach.field, prepared.attach.file, prepared.attach.filename);
-    } else {
-      const body = prepared.body ?? entry.body;
-      res = body ? await call.send(body) : await call;
-    }
+    const { method, url } = urlOf(route, vars);
+    const res = await send(prepared.agent ?? me?.agent ?? t.agent(), method, url, prepared, entry);
     expect({ status: res.status, body: res.status === want ? 'as expected' : res.body }).toEqual({
       status: want,
       body: 'as expected',

@@ -17,6 +17,18 @@ export function issuesToFields(part: string, error: z.ZodError, into: Record<str
   return into;
 }
 
+/** Paths of strings holding a NUL character, which PostgreSQL text cannot store. */
+function nulPaths(value: unknown, at: string[], out: string[][] = []): string[][] {
+  if (typeof value === 'string') {
+    if (value.includes('\u0000')) out.push(at);
+  } else if (Array.isArray(value)) {
+    value.forEach((v, i) => nulPaths(v, [...at, String(i)], out));
+  } else if (value && typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) nulPaths(v, [...at, k], out);
+  }
+  return out;
+}
+
 /**
  * Validate body, query and params; the parsed values replace the raw ones, so handlers only see
  * data that passed the schema (unknown keys stripped, strings trimmed, numbers coerced).
@@ -29,8 +41,10 @@ export function validate(schemas: Schemas): RequestHandler {
       const schema = schemas[part];
       if (!schema) continue;
       const result = schema.safeParse(part === 'body' ? (req.body ?? {}) : req[part]);
-      if (result.success) parsed[part] = result.data;
-      else issuesToFields(part, result.error, fields);
+      if (result.success) {
+        parsed[part] = result.data;
+        for (const at of nulPaths(result.data, [part])) (fields[at.join('.')] ??= []).push('Remove the NUL character');
+      } else issuesToFields(part, result.error, fields);
     }
     if (Object.keys(fields).length > 0) return next(validationFailed(fields));
     if ('body' in parsed) req.body = parsed.body;
