@@ -27,6 +27,20 @@ const keeperOnly = (ok: number) => ({ own: signedIn(ok), other: hidden, club: hi
 
 export const access: AccessTable = {
   'GET /api/cultures': { expect: { none: signedIn(200) } },
+  // exports hold the caller's own library only: the leak check reads every line
+  'GET /api/cultures/export.csv': { prepare: async (w, c) => (await w.culture(c), {}), expect: { own: signedIn(200) } },
+  'GET /api/cultures/backup.json': {
+    prepare: async (w, c) => (await w.culture(c), {}),
+    expect: { own: signedIn(200) },
+  },
+  // a backup the caller made of their own library, imported again as new cultures
+  'POST /api/cultures/backup': {
+    prepare: async (w, c) => {
+      const file = c.me ? (await c.me.agent.get('/api/cultures/backup.json').expect(200)).text : '{}';
+      return { attach: { field: 'file', file: Buffer.from(file), filename: 'backup.json' } };
+    },
+    expect: { own: signedIn(201) },
+  },
   'POST /api/cultures': {
     prepare: async () => ({
       body: {
