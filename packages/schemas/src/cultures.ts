@@ -545,3 +545,47 @@ export interface CultureListDto {
   pageSize: number;
   total: number;
 }
+
+// ---------------------------------------------------------------- backup
+
+export const BACKUP_FORMAT = 'barmkeep-culture-backup' as const;
+
+const backupCulture = z.object({
+  id: z.string().min(1).max(64),
+  parentId: z.string().min(1).max(64).nullable(),
+  generation: countInt('generation', 0, cultureLimits.generationMax),
+  strainName: label('a strain name', cultureLimits.strainMax),
+  species: z.string().trim().max(cultureLimits.speciesMax).nullable(),
+  tags: tagsField,
+  origin: z.enum(CULTURE_ORIGINS),
+  originDetails: CultureOriginDetailsSchema,
+  form: z.enum(CULTURE_FORMS),
+  amount: CultureAmountSchema,
+  locationLabel: z.string().trim().max(cultureLimits.locationMax),
+  storageTempC: storageTempField,
+  madeAt: z.iso.datetime({ offset: true }).transform((s) => new Date(s)),
+  state: z.enum(CULTURE_STATES),
+  suspect: z.boolean(),
+  notes: z.string().max(limits.notesMax),
+});
+
+const backupEvent = z.object({
+  id: z.string().min(1).max(64),
+  cultureId: z.string().min(1).max(64),
+  kind: z.enum(CULTURE_EVENT_KINDS),
+  occurredAt: z.iso.datetime({ offset: true }).transform((s) => new Date(s)),
+  notes: z.string().max(limits.notesMax),
+  data: z.record(z.string(), z.unknown()),
+  supersedesEventId: z.string().min(1).max(64).nullable(),
+});
+
+/** A person's cultures and their logs, as exported. Photos are not part of the file. */
+export const CultureBackupSchema = z.object({
+  format: z.literal(BACKUP_FORMAT, { error: 'This is not a Barmkeep culture backup' }),
+  version: z.literal(1, { error: 'This backup version is not supported' }),
+  exportedAt: z.iso.datetime({ offset: true }),
+  cultures: z.array(backupCulture).max(50_000),
+  events: z.array(backupEvent).max(500_000),
+});
+export type CultureBackup = z.input<typeof CultureBackupSchema>;
+export type CultureBackupData = z.output<typeof CultureBackupSchema>;

@@ -1,4 +1,7 @@
-import { Router } from 'express';
+import { Router, type RequestHandler } from 'express';
+import multer from 'multer';
+import { AppError, badRequest } from '../../lib/errors';
+import { exportBackup, exportLibraryCsv, importBackup } from '../../services/cultureBackup';
 import { validate } from '../../middleware/validate';
 import { currentUser, requireUser } from '../../middleware/session';
 import type { ServiceContext } from '../../services/context';
@@ -31,11 +34,43 @@ import {
   type CultureListQuery,
 } from './schema';
 
+/** The backup file arrives as an upload (field "file"), so a large library is not held to the JSON body limit. */
+function receiveBackup(): RequestHandler {
+  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 50 * 1024 * 1024, files: 1 } }).single('file');
+  return (req, res, next) =>
+    upload(req, res, (err: unknown) => {
+      if (err instanceof multer.MulterError) {
+        return next(err.code === 'LIMIT_FILE_SIZE' ? new AppError(413, 'file_too_large', 'Backups can be at most 50 MB') : badRequest('Send the backup in the "file" field', 'bad_upload'));
+      }
+      if (err) return next(err);
+      if (!req.file) return next(badRequest('Choose a backup file to import', 'validation_failed', { file: ['Choose a backup file'] }));
+      next();
+    });
+}
+
 /** The culture library: the route parses, the service authorizes and does the work. */
 export function culturesRouter(ctx: ServiceContext) {
   const router = Router();
   router.use(requireUser);
   const id = (req: { params: unknown }) => (req.params as { id: string }).id;
+
+  // before '/:id', so these names are not taken for culture ids
+  router.get('/export.csv', async (req, res) => {
+    const csv = await exportLibraryCsv(ctx, currentUser(req));
+    res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+    res.setHeader('Content-Disposition', `attachment; filename="barmkeep-cultures-${ctx.now().toISOString().slice(0, 10)}.csv"`);
+    res.send(csv);
+  });
+
+  router.get('/backup.json', async (req, res) => {
+    const backup = await exportBackup(ctx, currentUser(req));
+    res.setHeader('Content-Disposition', `attachment; filename="barmkeep-backup-${ctx.now().toISOString().slice(0, 10)}.json"`);
+    res.json(backup);
+  });
+
+  router.post('/backup', receiveBackup(), async (req, res) => {
+    res.status(201).json({ imported: await importBackup(ctx, currentUser(req), req.file!.buffer) });
+  });
 
   router.get('/', validate({ query: CultureListSchema }), async (req, res) => {
     res.json(await listCultures(ctx, currentUser(req), req.query as unknown as CultureListQuery));

@@ -118,3 +118,26 @@ export function useDeletePhotoMutation(id: string) {
     onSuccess: () => queryClient.invalidateQueries({ queryKey: cultureKeys.photos(id) }),
   });
 }
+
+/** Import a JSON backup: all or nothing; a bad file comes back with one message per wrong row. */
+export function useImportBackupMutation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: async (file: File) => {
+      const form = new FormData();
+      form.set('file', file);
+      let res: Response;
+      try {
+        res = await fetch('/api/cultures/backup', { method: 'POST', body: form, credentials: 'same-origin', headers: { Accept: 'application/json' } });
+      } catch {
+        throw new ApiError({ status: 0, code: 'network_error', message: 'Could not reach Barmkeep. Check your connection and try again.' });
+      }
+      const body = (await res.json().catch(() => undefined)) as ({ imported: { cultures: number; events: number } } & Partial<ApiErrorBody>) | undefined;
+      if (!res.ok || !body?.imported) {
+        throw new ApiError({ status: res.status, code: body?.error?.code ?? 'bad_response', message: body?.error?.message ?? 'The import failed.', fields: body?.error?.fields });
+      }
+      return body.imported;
+    },
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: cultureKeys.all }),
+  });
+}

@@ -8,10 +8,12 @@ import {
   useReactTable,
   type SortingState,
 } from '@tanstack/react-table';
-import { ArrowDown, ArrowUp, ArrowUpDown, Plus, TriangleAlert } from 'lucide-react';
+import { ArrowDown, ArrowUp, ArrowUpDown, Download, Plus, TriangleAlert, Upload } from 'lucide-react';
 import { CULTURE_FORMS, CULTURE_STATES, type CultureSummaryDto } from '@barmkeep/schemas';
 import { cultureQueries, type CultureListFilters } from '../../api/cultures/queries';
-import { Button, ButtonLink, EmptyState, Loading, Notice, PageHeader, Select, TextField, cx } from '../../components';
+import { useImportBackupMutation } from '../../api/cultures/mutations';
+import { isApiError } from '../../api/client';
+import { Button, ButtonLink, EmptyState, Loading, Notice, PageHeader, Select, TextField, buttonClasses, cx } from '../../components';
 import { attentionText, formLabels, pct, stateLabels } from '../../lib/cultureLabels';
 
 /** Table column → the API's sort key. Age sorts by the made date, the other way round. */
@@ -73,6 +75,61 @@ function numberParam(v: string | null): number | undefined {
   if (v === null || v === '') return undefined;
   const n = Number(v);
   return Number.isFinite(n) ? n : undefined;
+}
+
+/** CSV of the library, a JSON backup of every culture and log entry, and importing such a backup. */
+function ExportAndBackup() {
+  const importBackup = useImportBackupMutation();
+  const onImport = async (e: FormEvent<HTMLFormElement>) => {
+    e.preventDefault();
+    const form = e.currentTarget;
+    const file = new FormData(form).get('file');
+    if (!(file instanceof File) || file.size === 0) return;
+    try {
+      await importBackup.mutateAsync(file);
+      form.reset();
+    } catch {
+      /* shown below */
+    }
+  };
+  const err = importBackup.error;
+  return (
+    <details className="rounded-lg border border-rule bg-paper-raised p-4">
+      <summary className="cursor-pointer font-medium">Export, back up or import</summary>
+      <div className="mt-3 space-y-4">
+        <div className="flex flex-wrap gap-2">
+          <a className={buttonClasses('secondary')} href="/api/cultures/export.csv" download>
+            <Download aria-hidden className="size-5" /> Library as CSV
+          </a>
+          <a className={buttonClasses('secondary')} href="/api/cultures/backup.json" download>
+            <Download aria-hidden className="size-5" /> Full backup (JSON)
+          </a>
+        </div>
+        <p className="text-sm text-ink-muted">The backup holds every culture and log entry, not the photos.</p>
+        <form onSubmit={onImport} className="space-y-3" aria-label="Import a backup">
+          <TextField label="Import a backup file" name="file" type="file" accept="application/json,.json" hint="Everything in the file is added as new cultures, or nothing is if any row is wrong." />
+          <Button type="submit" variant="secondary" icon={<Upload aria-hidden className="size-5" />} busy={importBackup.isPending} busyLabel="Importing…">
+            Import
+          </Button>
+        </form>
+        {importBackup.isSuccess ? (
+          <Notice tone="success" live="polite">Imported {importBackup.data.cultures} cultures and {importBackup.data.events} log entries.</Notice>
+        ) : null}
+        {err ? (
+          <Notice tone="danger" live="assertive" title="Nothing was imported">
+            <p>{err.message}</p>
+            {isApiError(err) && err.hasFieldErrors ? (
+              <ul className="mt-1 list-disc pl-5 text-sm">
+                {Object.entries(err.fields).slice(0, 20).map(([where, msgs]) => (
+                  <li key={where}><span className="num">{where}</span>: {msgs.join(' ')}</li>
+                ))}
+              </ul>
+            ) : null}
+          </Notice>
+        ) : null}
+      </div>
+    </details>
+  );
 }
 
 export function CultureLibrary() {
@@ -244,6 +301,7 @@ export function CultureLibrary() {
           </nav>
         </>
       )}
+      <ExportAndBackup />
     </div>
   );
 }
