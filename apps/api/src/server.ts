@@ -1,4 +1,4 @@
-import { loadEnv } from './config/env';
+import { loadEnv, mailModeOf } from './config/env';
 import { connect, runMigrations } from './db/client';
 import { createApp, appUrlOf } from './app';
 import { createLogger } from './lib/logger';
@@ -16,8 +16,8 @@ logger.info('migrations applied');
 let mailer: Mailer;
 let inbox: FakeInbox | undefined;
 let closeSmtp: (() => Promise<void>) | undefined;
-if (env.SMTP_URL && env.FAKE_SMTP !== '1') {
-  mailer = createSmtpMailer({ url: env.SMTP_URL }, env.MAIL_FROM);
+if (mailModeOf(env) === 'smtp') {
+  mailer = createSmtpMailer({ url: env.SMTP_URL! }, env.MAIL_FROM);
 } else {
   inbox = new FakeInbox();
   const smtp = await startFakeSmtp(inbox, env.FAKE_SMTP_PORT);

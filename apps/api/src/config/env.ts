@@ -42,3 +42,16 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   }
   return parsed.data;
 }
+
+/**
+ * Where mail goes. The fake inbox is readable by anyone who can reach /api/dev/mail, so a
+ * production process uses it only when asked for explicitly (FAKE_SMTP=1, as the local demo
+ * started by infra/start.sh on loopback does); otherwise production needs a real SMTP_URL.
+ */
+export function mailModeOf(env: Env): 'smtp' | 'fake' {
+  if (env.SMTP_URL && env.FAKE_SMTP !== '1') return 'smtp';
+  if (env.FAKE_SMTP === '1' || env.NODE_ENV !== 'production') return 'fake';
+  throw new Error(
+    'Production needs SMTP_URL (a real mail provider). For a local demo only, FAKE_SMTP=1 keeps mail in an inbox anyone reaching the server can read.',
+  );
+}
