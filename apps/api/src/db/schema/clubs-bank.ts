@@ -1,4 +1,4 @@
-import { pgTable, text, timestamp, pgEnum, index, uniqueIndex, jsonb } from 'drizzle-orm/pg-core';
+import { pgTable, text, timestamp, pgEnum, index, uniqueIndex, jsonb, integer, check } from 'drizzle-orm/pg-core';
 import { sql } from 'drizzle-orm';
 import { users } from './users';
 import { clubs } from './clubs';
@@ -92,6 +92,8 @@ export const clubActivityKind = pgEnum('club_activity_kind', [
   'request_answered',
   'handoff_received',
   'culture_quarantined',
+  'stock_added',
+  'stock_withdrawn',
 ]);
 
 /** The club's feed, newest first; each row is a sentence's worth of facts, not free text. */
@@ -115,3 +117,33 @@ export const clubActivity = pgTable(
 export type ClubListingRow = typeof clubListings.$inferSelect;
 export type StrainRequestRow = typeof strainRequests.$inferSelect;
 export type ClubActivityRow = typeof clubActivity.$inferSelect;
+
+export const clubStockUnit = pgEnum('club_stock_unit', ['vial', 'slant', 'plate', 'pack']);
+
+/**
+ * Club-owned stock: a culture whose owner is the club (cultures.owner_club_id), kept by a steward
+ * (cultures.owner_user_id, who holds it physically), with a count of identical units (vials of a
+ * frozen library, slants). "Withdraw one" takes a unit and starts the recipient's culture under it.
+ */
+export const clubStock = pgTable(
+  'club_stock',
+  {
+    cultureId: text('culture_id')
+      .primaryKey()
+      .references(() => cultures.id, { onDelete: 'cascade' }),
+    clubId: text('club_id')
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    unit: clubStockUnit('unit').notNull(),
+    unitsLeft: integer('units_left').notNull(),
+    addedByUserId: text('added_by_user_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('club_stock_club_idx').on(t.clubId),
+    check('club_stock_units_range', sql`${t.unitsLeft} >= 0 and ${t.unitsLeft} <= 10000`),
+  ],
+);
+
+export type ClubStockRow = typeof clubStock.$inferSelect;
