@@ -13,9 +13,7 @@ export interface DeliveryDeps {
   logger?: Pick<Logger, 'warn' | 'info'>;
 }
 
-/** A claim older than this is taken to be from a worker that died mid-send and may be taken again. */
-const STALE_CLAIM_MS = 10 * 60_000;
-const BATCH = 200;
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 interface ClaimedRow extends Record<string, unknown> {
   id: string;
@@ -38,7 +36,7 @@ export const preferencesUrl = (appUrl: string, token: string) =>
 export const unsubscribeUrl = (appUrl: string, token: string) =>
   `${appUrl}/api/email-preferences/${encodeURIComponent(token)}/unsubscribe`;
 
-async function recipients(db: Db, appUrl: string, userIds: string[]) {
+async function recipients(db: Db | Tx, appUrl: string, userIds: string[]) {
   const prefs = await ensurePreferences(db, userIds);
   const tokens = new Map(prefs.map((p) => [p.userId, p.emailToken]));
   const { rows } = await db.execute<PersonRow>(
@@ -85,49 +83,50 @@ async function skipUnwanted(db: Db, now: Date) {
 }
 
 /**
- * E-mails each pending notice of people who want one e-mail per notice. Rows are claimed with
- * UPDATE … FOR UPDATE SKIP LOCKED, so two workers never take the same notice.
+ * E-mails each pending notice of people who want one e-mail per notice. Each notice is taken in a
+ * transaction of its own with FOR UPDATE SKIP LOCKED and stays locked while it is sent: another
+ * worker skips it, and a worker that dies mid-send (SIGKILL, lost host) loses its connection, so
+ * PostgreSQL rolls the claim back and the next pass sends the notice. Only a death between the
+ * provider accepting the message and the commit a few milliseconds later can send one twice.
  */
 export async function sendEachNotices(deps: DeliveryDeps, now: Date): Promise<number> {
   const { db, mailer, appUrl } = deps;
   await skipUnwanted(db, now);
   let sent = 0;
+  const failed: string[] = [];
   for (;;) {
-    const { rows } = await db.execute<ClaimedRow>(sql`
-      with picked as (
-        select n.id from notifications n
+    const outcome = await db.transaction(async (tx) => {
+      const { rows } = await tx.execute<ClaimedRow>(sql`
+        select n.id, n.user_id, n.kind, n.title, n.body, n.link from notifications n
         left join notification_preferences p on p.user_id = n.user_id
         where n.email_state = 'pending' and n.digest_id is null
           and coalesce(p.email_delivery, 'each') = 'each'
-          and (n.email_claimed_at is null or n.email_claimed_at < ${new Date(now.getTime() - STALE_CLAIM_MS)}::timestamptz)
           and n.created_at <= ${now}::timestamptz
+          ${failed.length ? sql`and n.id <> all(${sql.param(failed)}::text[])` : sql``}
         order by n.created_at, n.id
-        limit ${BATCH}
-        for update of n skip locked
-      )
-      update notifications n set email_claimed_at = ${now}::timestamptz
-      from picked where n.id = picked.id
-      returning n.id, n.user_id, n.kind, n.title, n.body, n.link`);
-    if (rows.length === 0) break;
-    const people = await recipients(
-      db,
-      appUrl,
-      rows.map((r) => r.user_id),
-    );
-    for (const n of rows) {
-      const r = people.get(n.user_id);
-      if (!r) continue;
+        limit 1
+        for update of n skip locked`);
+      const n = rows[0];
+      if (!n) return 'done' as const;
+      const r = (await recipients(tx, appUrl, [n.user_id])).get(n.user_id);
+      if (!r) {
+        failed.push(n.id);
+        return 'skipped' as const;
+      }
       try {
         await mailer.send(reminderMail(r, toMailNotice(appUrl, n)));
-        await db.execute(
-          sql`update notifications set email_state = 'sent', emailed_at = ${now}::timestamptz where id = ${n.id}`,
-        );
-        sent += 1;
       } catch (err) {
         deps.logger?.warn({ err, notificationId: n.id }, 'reminder e-mail failed; it will be retried');
+        failed.push(n.id);
+        return 'failed' as const;
       }
-    }
-    if (rows.length < BATCH) break;
+      await tx.execute(
+        sql`update notifications set email_state = 'sent', email_claimed_at = ${now}::timestamptz, emailed_at = ${now}::timestamptz where id = ${n.id}`,
+      );
+      return 'sent' as const;
+    });
+    if (outcome === 'done') break;
+    if (outcome === 'sent') sent += 1;
   }
   return sent;
 }
@@ -137,61 +136,68 @@ interface DigestRow extends Record<string, unknown> {
   user_id: string;
 }
 
+class NothingToSend extends Error {}
+
 /**
  * One digest per person per local day, at or after their digest hour in their time zone, with
  * every notice still waiting. The (person, local date) unique index decides which worker sends it.
+ * Each digest is one transaction: the digest row, the notices it takes and their 'sent' mark
+ * commit together after the provider accepted the e-mail; a worker dying mid-send rolls it all
+ * back, so the next pass sends the digest instead of leaving its notices tied to a dead one.
  */
 export async function sendDigests(deps: DeliveryDeps, now: Date): Promise<number> {
   const { db, mailer, appUrl } = deps;
   await skipUnwanted(db, now);
-  const { rows: digests } = await db.execute<DigestRow>(sql`
-    insert into notification_digests (id, user_id, local_date, created_at)
-    select gen_random_uuid()::text, u.id, (${now}::timestamptz at time zone u.time_zone)::date, ${now}::timestamptz
+  const { rows: due } = await db.execute<{ user_id: string }>(sql`
+    select u.id as user_id
     from users u join notification_preferences p on p.user_id = u.id
     where p.email_delivery = 'digest'
       and extract(hour from (${now}::timestamptz at time zone u.time_zone)) >= p.digest_hour
+      and not exists (select 1 from notification_digests d where d.user_id = u.id
+                      and d.local_date = (${now}::timestamptz at time zone u.time_zone)::date)
       and exists (select 1 from notifications n where n.user_id = u.id and n.email_state = 'pending'
-                  and n.digest_id is null and n.created_at <= ${now}::timestamptz)
-    on conflict (user_id, local_date) do nothing
-    returning id, user_id`);
-  if (digests.length === 0) return 0;
-  const people = await recipients(
-    db,
-    appUrl,
-    digests.map((d) => d.user_id),
-  );
+                  and n.digest_id is null and n.created_at <= ${now}::timestamptz)`);
   let sent = 0;
-  for (const d of digests) {
-    const { rows: notices } = await db.execute<ClaimedRow & { due_at: Date | string | null }>(sql`
-      update notifications set digest_id = ${d.id}, email_claimed_at = ${now}::timestamptz
-      where user_id = ${d.user_id} and email_state = 'pending' and digest_id is null and created_at <= ${now}::timestamptz
-      returning id, user_id, kind, title, body, link, due_at, created_at`);
-    const r = people.get(d.user_id);
-    if (!r || notices.length === 0) continue;
-    notices.sort(
-      (a, b) => (a.due_at ? asDate(a.due_at).getTime() : Infinity) - (b.due_at ? asDate(b.due_at).getTime() : Infinity),
-    );
+  for (const { user_id: userId } of due) {
     try {
-      await mailer.send(
-        digestMail(
-          r,
-          dayWords(now, now, r.timeZone),
-          notices.map((n) => toMailNotice(appUrl, n)),
-          appUrl,
-        ),
-      );
-      await db.execute(
-        sql`update notifications set email_state = 'sent', emailed_at = ${now}::timestamptz where digest_id = ${d.id}`,
-      );
-      await db.execute(sql`update notification_digests set sent_at = ${now}::timestamptz where id = ${d.id}`);
-      sent += 1;
+      const done = await db.transaction(async (tx) => {
+        const { rows: digests } = await tx.execute<DigestRow>(sql`
+          insert into notification_digests (id, user_id, local_date, created_at)
+          select gen_random_uuid()::text, u.id, (${now}::timestamptz at time zone u.time_zone)::date, ${now}::timestamptz
+          from users u where u.id = ${userId}
+          on conflict (user_id, local_date) do nothing
+          returning id, user_id`);
+        const d = digests[0];
+        if (!d) return false; // another worker sent (or is sending) today's digest
+        const { rows: notices } = await tx.execute<ClaimedRow & { due_at: Date | string | null }>(sql`
+          update notifications set digest_id = ${d.id}, email_claimed_at = ${now}::timestamptz
+          where user_id = ${userId} and email_state = 'pending' and digest_id is null and created_at <= ${now}::timestamptz
+          returning id, user_id, kind, title, body, link, due_at, created_at`);
+        const r = (await recipients(tx, appUrl, [userId])).get(userId);
+        if (!r || notices.length === 0) throw new NothingToSend();
+        notices.sort(
+          (a, b) =>
+            (a.due_at ? asDate(a.due_at).getTime() : Infinity) - (b.due_at ? asDate(b.due_at).getTime() : Infinity),
+        );
+        await mailer.send(
+          digestMail(
+            r,
+            dayWords(now, now, r.timeZone),
+            notices.map((n) => toMailNotice(appUrl, n)),
+            appUrl,
+          ),
+        );
+        await tx.execute(
+          sql`update notifications set email_state = 'sent', emailed_at = ${now}::timestamptz where digest_id = ${d.id}`,
+        );
+        await tx.execute(sql`update notification_digests set sent_at = ${now}::timestamptz where id = ${d.id}`);
+        return true;
+      });
+      if (done) sent += 1;
     } catch (err) {
-      // Put them back for the next digest.
-      await db.execute(
-        sql`update notifications set digest_id = null, email_claimed_at = null where digest_id = ${d.id}`,
-      );
-      await db.execute(sql`delete from notification_digests where id = ${d.id}`);
-      deps.logger?.warn({ err, digestId: d.id }, 'digest e-mail failed; it will be retried');
+      // rolled back: the notices wait for the next pass
+      if (!(err instanceof NothingToSend))
+        deps.logger?.warn({ err, userId }, 'digest e-mail failed; it will be retried');
     }
   }
   return sent;
