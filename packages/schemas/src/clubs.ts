@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { emailField, displayNameField, passwordField } from './auth';
+import { CULTURE_FORMS, type CultureForm } from './cultures';
 
 export const CLUB_ROLES = ['owner', 'steward', 'member'] as const;
 export type ClubRoleName = (typeof CLUB_ROLES)[number];
@@ -152,7 +153,7 @@ export const StrainRequestCreateSchema = z.object({
   listingId: rowId,
   message: note(1000),
   neededBy: z.iso.datetime({ offset: true, message: 'Give a date and time' }).optional(),
-  wantedForm: z.string().trim().max(40).optional(),
+  wantedForm: z.enum(CULTURE_FORMS, { error: 'Choose a form from the list' }).optional(),
 });
 export type StrainRequestCreateInput = z.infer<typeof StrainRequestCreateSchema>;
 
@@ -194,6 +195,8 @@ export interface ClubListingDto {
   /** 0–1, today's projection from the keeper's records */
   projectedViability: number | null;
   canRequest: boolean;
+  /** units left when the culture is club-owned stock; null for a member's own culture */
+  stock: { unit: ClubStockUnit; unitsLeft: number } | null;
   listedAt: string;
 }
 
@@ -206,7 +209,9 @@ export interface StrainRequestDto {
   keeper: { id: string; name: string };
   message: string;
   neededBy: string | null;
-  wantedForm: string | null;
+  wantedForm: CultureForm | null;
+  /** the culture is club stock: any steward answers, receipt takes one unit */
+  clubStock: boolean;
   status: 'awaiting_approval' | 'open' | 'proposed' | 'accepted' | 'declined' | 'received' | 'cancelled';
   responseNote: string;
   proposedAt: string | null;
@@ -222,4 +227,66 @@ export interface ClubActivityDto {
   requestId: string | null;
   data: Record<string, unknown>;
   createdAt: string;
+}
+
+/* Club-owned stock (the frozen library, slants) */
+
+export const CLUB_STOCK_UNITS = ['vial', 'slant', 'plate', 'pack'] as const;
+export type ClubStockUnit = (typeof CLUB_STOCK_UNITS)[number];
+
+export const clubStockLimits = { unitsMax: 10000 } as const;
+
+export const ClubStockParamsSchema = z.object({ clubId: rowId, cultureId: rowId });
+
+/** A steward turns one of the cultures they keep into club stock of `units` identical units. */
+export const ClubStockCreateSchema = z.object({
+  cultureId: rowId,
+  unit: z.enum(CLUB_STOCK_UNITS, { error: 'Choose vial, slant, plate or pack' }),
+  units: z.coerce
+    .number({ error: 'Give how many' })
+    .int('Whole units only')
+    .min(1, 'At least one')
+    .max(clubStockLimits.unitsMax, `At most ${clubStockLimits.unitsMax}`),
+  note: note(500),
+});
+export type ClubStockCreateInput = z.infer<typeof ClubStockCreateSchema>;
+
+/** A steward sets the count after a stock-take (units made or found missing). */
+export const ClubStockUpdateSchema = z.object({
+  unitsLeft: z.coerce
+    .number({ error: 'Give how many' })
+    .int('Whole units only')
+    .min(0, 'Not below zero')
+    .max(clubStockLimits.unitsMax, `At most ${clubStockLimits.unitsMax}`),
+});
+export type ClubStockUpdateInput = z.infer<typeof ClubStockUpdateSchema>;
+
+/** A steward takes one unit out for a member (themselves when no one is named). */
+export const ClubStockWithdrawSchema = z.object({
+  recipientUserId: rowId.optional(),
+  locationLabel: z.string().trim().max(120, 'At most 120 characters').default(''),
+  storageTempC: z.coerce
+    .number({ error: 'Give a temperature' })
+    .min(-200, 'Below −200 °C is not a storage temperature')
+    .max(40, 'Above 40 °C is not storage')
+    .default(4),
+  note: note(500),
+});
+export type ClubStockWithdrawInput = z.infer<typeof ClubStockWithdrawSchema>;
+
+export interface ClubStockDto {
+  cultureId: string;
+  listingId: string | null;
+  strainName: string;
+  form: CultureForm;
+  generation: number;
+  state: string;
+  suspect: boolean;
+  unit: ClubStockUnit;
+  unitsLeft: number;
+  storageTempC: number;
+  /** the steward who holds it */
+  keeper: { id: string; name: string };
+  projectedViability: number | null;
+  updatedAt: string;
 }

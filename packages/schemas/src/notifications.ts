@@ -8,6 +8,7 @@ export const NOTIFICATION_KINDS = [
   'culture.generation',
   'plan.step',
   'club.request',
+  'culture.lineage_contamination',
 ] as const;
 export type NotificationKind = (typeof NOTIFICATION_KINDS)[number];
 
@@ -18,6 +19,7 @@ export const NOTIFICATION_KIND_LABELS: Record<NotificationKind, string> = {
   'culture.generation': 'Generation limit reached',
   'plan.step': 'Starter steps and brew days',
   'club.request': 'Club requests waiting for you',
+  'culture.lineage_contamination': 'Contamination found in the lineage of a culture you keep',
 };
 
 export const EMAIL_DELIVERIES = ['each', 'digest', 'none'] as const;

@@ -25,7 +25,8 @@ export interface NotifyInput {
  * the person muted this kind.
  */
 export async function notify(
-  ctx: Pick<ServiceContext, 'db' | 'now'>,
+  // a transaction works too, so a notice is written with the change it tells about
+  ctx: { db: Parameters<typeof insertNotices>[0] } & Pick<ServiceContext, 'now'>,
   input: NotifyInput,
 ): Promise<NotificationRow | null> {
   const prefs = await findPreferences(ctx.db, input.userId);

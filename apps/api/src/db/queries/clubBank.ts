@@ -4,8 +4,8 @@ import type { DbOrTx } from './clubs';
 import {
   clubActivity,
   clubListings,
+  clubStock,
   cultures,
-  notifications,
   strainRequests,
   users,
   type StrainRequestRow,
@@ -33,10 +33,11 @@ export async function withdrawListing(db: DbOrTx, listingId: string, now: Date) 
 /** The live listings of a club whose keeper still belongs to it. */
 export async function listBank(db: DbOrTx, clubId: string) {
   return db
-    .select({ listing: clubListings, culture: cultures, keeperName: users.name })
+    .select({ listing: clubListings, culture: cultures, keeperName: users.name, stock: clubStock })
     .from(clubListings)
     .innerJoin(cultures, eq(cultures.id, clubListings.cultureId))
     .innerJoin(users, eq(users.id, cultures.ownerUserId))
+    .leftJoin(clubStock, and(eq(clubStock.cultureId, cultures.id), eq(clubStock.clubId, clubListings.clubId)))
     .where(
       and(
         eq(clubListings.clubId, clubId),
@@ -76,6 +77,7 @@ export async function listRequests(db: DbOrTx, clubId: string, involving?: strin
     .select({
       request: strainRequests,
       strainName: cultures.strainName,
+      ownerClubId: cultures.ownerClubId,
       requesterName: requester.name,
       keeperName: keeper.name,
     })
@@ -120,7 +122,57 @@ export async function listActivity(
     .limit(params.limit);
 }
 
-/** In-app notices; the reminders worker e-mails pending ones as each person chose. */
-export async function insertNotice(db: DbOrTx, values: typeof notifications.$inferInsert) {
-  await db.insert(notifications).values(values).onConflictDoNothing();
+/* Club-owned stock */
+
+export async function insertStock(db: DbOrTx, values: typeof clubStock.$inferInsert) {
+  const rows = await db.insert(clubStock).values(values).onConflictDoNothing().returning();
+  return rows[0];
+}
+
+export async function findStock(db: DbOrTx, clubId: string, cultureId: string, forUpdate = false) {
+  const q = db
+    .select()
+    .from(clubStock)
+    .where(and(eq(clubStock.clubId, clubId), eq(clubStock.cultureId, cultureId)))
+    .limit(1);
+  const [row] = forUpdate ? await q.for('update') : await q;
+  return row;
+}
+
+export async function setStockUnits(db: DbOrTx, cultureId: string, unitsLeft: number, now: Date) {
+  const [row] = await db
+    .update(clubStock)
+    .set({ unitsLeft, updatedAt: now })
+    .where(eq(clubStock.cultureId, cultureId))
+    .returning();
+  return row;
+}
+
+/** Takes one unit if any is left; undefined when the stock is empty. */
+export async function takeOneUnit(db: DbOrTx, cultureId: string, now: Date) {
+  const [row] = await db
+    .update(clubStock)
+    .set({ unitsLeft: sql`${clubStock.unitsLeft} - 1`, updatedAt: now })
+    .where(and(eq(clubStock.cultureId, cultureId), sql`${clubStock.unitsLeft} > 0`))
+    .returning();
+  return row;
+}
+
+/** The club's stock with its culture and the steward who holds it, and its live listing if any. */
+export async function listStock(db: DbOrTx, clubId: string) {
+  return db
+    .select({ stock: clubStock, culture: cultures, keeperName: users.name, listingId: clubListings.id })
+    .from(clubStock)
+    .innerJoin(cultures, eq(cultures.id, clubStock.cultureId))
+    .innerJoin(users, eq(users.id, cultures.ownerUserId))
+    .leftJoin(
+      clubListings,
+      and(
+        eq(clubListings.cultureId, clubStock.cultureId),
+        eq(clubListings.clubId, clubStock.clubId),
+        isNull(clubListings.withdrawnAt),
+      ),
+    )
+    .where(eq(clubStock.clubId, clubId))
+    .orderBy(cultures.strainName, clubStock.cultureId);
 }

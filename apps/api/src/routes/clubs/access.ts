@@ -5,7 +5,8 @@ import {
   type AccessWorld,
   type Statuses,
 } from '../../../test/access/types';
-import { clubListings, cultures, strainRequests } from '../../db/schema';
+import { clubListings, clubStock, cultures, strainRequests } from '../../db/schema';
+import { eq } from 'drizzle-orm';
 import { newId } from '../../lib/ids';
 
 /**
@@ -55,6 +56,17 @@ async function requestBetween(
     .insert(strainRequests)
     .values({ id, clubId, listingId, cultureId, keeperUserId: keeperId, requesterUserId: requesterId, status });
   return id;
+}
+
+/** Club stock of the case's club, held by its steward (scope `other`: by the neighbour). */
+async function stockOf(w: AccessWorld, c: AccessCase, units = 3) {
+  const holder = c.scope === 'club' ? w.people.steward.id : w.people.neighbour.id;
+  const cultureId = await cultureOf(w, holder);
+  const db = w.t.database.db;
+  await db.update(cultures).set({ ownerClubId: c.clubId, visibility: 'club' }).where(eq(cultures.id, cultureId));
+  await db.insert(clubStock).values({ cultureId, clubId: c.clubId, unit: 'vial', unitsLeft: units });
+  await db.insert(clubListings).values({ id: newId(), clubId: c.clubId, cultureId, listedByUserId: holder });
+  return cultureId;
 }
 
 /** the caller holds a role in the club the case acts on */
@@ -137,4 +149,23 @@ export const access: AccessTable = {
     expect: inClub(statuses(401, 404, 201, 201, 201, 403)),
   },
   'GET /api/clubs/:clubId/activity': { expect: inClub(statuses(401, 404, 200, 200, 200, 200)) },
+  'GET /api/clubs/:clubId/stock': {
+    prepare: async (w, c) => (await stockOf(w, c), {}),
+    expect: inClub(statuses(401, 404, 200, 200, 200, 200)),
+  },
+  // a steward turns a culture they keep into club stock
+  'POST /api/clubs/:clubId/stock': {
+    prepare: async (w, c) => ({
+      body: { cultureId: await cultureOf(w, (c.me ?? c.holder).id), unit: 'vial', units: 6 },
+    }),
+    expect: inClub(statuses(401, 404, 403, 201, 201, 403)),
+  },
+  'PATCH /api/clubs/:clubId/stock/:cultureId': {
+    prepare: async (w, c) => ({ vars: { cultureId: await stockOf(w, c) }, body: { unitsLeft: 5 } }),
+    expect: inClub(statuses(401, 404, 403, 200, 200, 403)),
+  },
+  'POST /api/clubs/:clubId/stock/:cultureId/withdraw': {
+    prepare: async (w, c) => ({ vars: { cultureId: await stockOf(w, c) }, body: { storageTempC: -70 } }),
+    expect: inClub(statuses(401, 404, 403, 201, 201, 403)),
+  },
 };

@@ -158,7 +158,13 @@ describe('club bank, requests and handoffs', () => {
         .select()
         .from(notifications)
         .where(and(eq(notifications.subjectId, id), eq(notifications.userId, keeper.id)));
-      expect(notice).toHaveLength(1);
+      // the keeper is also an owner here: told once that it waits for approval, once that it is theirs to answer
+      expect(notice.map((n) => n.dedupeKey).sort()).toEqual(['approval', 'asked']);
+      const stewardNotice = await t.database.db
+        .select()
+        .from(notifications)
+        .where(and(eq(notifications.subjectId, id), eq(notifications.userId, steward.id)));
+      expect(stewardNotice.map((n) => n.dedupeKey)).toEqual(['approval']);
       await keeper.agent.post(`/api/clubs/${clubId}/requests/${id}/respond`).send({ action: 'propose' }).expect(400);
       const proposed = await keeper.agent
         .post(`/api/clubs/${clubId}/requests/${id}/respond`)

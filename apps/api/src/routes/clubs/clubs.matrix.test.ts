@@ -11,7 +11,8 @@ import {
 } from '../../../test/clubFactories';
 import { clubRouteMounts } from './mounts';
 import type { ServiceContext } from '../../services/context';
-import { clubInvitations, clubListings, cultures, strainRequests } from '../../db/schema';
+import { eq } from 'drizzle-orm';
+import { clubInvitations, clubListings, clubStock, cultures, strainRequests } from '../../db/schema';
 import { newId, newSecretToken, sha256 } from '../../lib/ids';
 
 /**
@@ -116,6 +117,15 @@ async function requestBetween(
   return id;
 }
 
+/** Three vials of club stock held by the steward. */
+async function stockOf(w: World, clubId: string) {
+  const cultureId = await cultureOf(w, w.people.steward.id);
+  const db = w.t.database.db;
+  await db.update(cultures).set({ ownerClubId: clubId, visibility: 'club' }).where(eq(cultures.id, cultureId));
+  await db.insert(clubStock).values({ cultureId, clubId, unit: 'vial', unitsLeft: 3 });
+  return cultureId;
+}
+
 const inClub = (c: Case) => c.actor === 'member' || c.actor === 'steward' || c.actor === 'owner';
 
 const MATRIX: Record<string, Entry> = {
@@ -192,6 +202,25 @@ const MATRIX: Record<string, Entry> = {
     expect: statuses(401, 404, 201, 201, 201, 403),
   },
   'GET /api/clubs/:clubId/activity': { expect: statuses(401, 404, 200, 200, 200, 200) },
+  'GET /api/clubs/:clubId/stock': {
+    prepare: async (w, c) => (await stockOf(w, c.clubId), {}),
+    expect: statuses(401, 404, 200, 200, 200, 200),
+  },
+  // a steward makes a culture they keep into club stock
+  'POST /api/clubs/:clubId/stock': {
+    prepare: async (w, c) => ({
+      body: { cultureId: await cultureOf(w, c.me?.id ?? w.people.nonMember.id), unit: 'slant', units: 4 },
+    }),
+    expect: statuses(401, 404, 403, 201, 201, 403),
+  },
+  'PATCH /api/clubs/:clubId/stock/:cultureId': {
+    prepare: async (w, c) => ({ vars: { cultureId: await stockOf(w, c.clubId) }, body: { unitsLeft: 2 } }),
+    expect: statuses(401, 404, 403, 200, 200, 403),
+  },
+  'POST /api/clubs/:clubId/stock/:cultureId/withdraw': {
+    prepare: async (w, c) => ({ vars: { cultureId: await stockOf(w, c.clubId) }, body: { storageTempC: -70 } }),
+    expect: statuses(401, 404, 403, 201, 201, 403),
+  },
   // the token is the secret: whoever holds it may read what it is for
   'POST /api/invitations/lookup': {
     prepare: async (w, c) => ({ body: { token: (await openInvitation(w, c.clubId, freshEmail())).token } }),

@@ -19,9 +19,20 @@ import {
   ClubMemberUpdateSchema,
   ClubParamsSchema,
   ClubUpdateSchema,
+  ClubStockCreateSchema,
+  ClubStockParamsSchema,
+  ClubStockUpdateSchema,
+  ClubStockWithdrawSchema,
 } from './schema';
 
-type Params = { clubId: string; userId: string; invitationId: string; listingId: string; requestId: string };
+type Params = {
+  clubId: string;
+  userId: string;
+  invitationId: string;
+  listingId: string;
+  requestId: string;
+  cultureId: string;
+};
 const p = (req: Request) => req.params as unknown as Params;
 const actor = (req: Request) => currentUser(req);
 
@@ -155,6 +166,38 @@ export function clubsRouter(ctx: ServiceContext) {
     async (req, res) => {
       const query = req.query as unknown as { before?: string; limit: number };
       res.json(await clubBank.listActivity(ctx, actor(req), p(req).clubId, query));
+    },
+  );
+
+  /* Club-owned stock */
+
+  router.get('/:clubId/stock', validate({ params: ClubParamsSchema }), async (req, res) => {
+    res.json({ stock: await clubBank.listStock(ctx, actor(req), p(req).clubId) });
+  });
+
+  router.post(
+    '/:clubId/stock',
+    validate({ params: ClubParamsSchema, body: ClubStockCreateSchema }),
+    async (req, res) => {
+      res.status(201).json({ stock: await clubBank.addStock(ctx, actor(req), p(req).clubId, req.body) });
+    },
+  );
+
+  router.patch(
+    '/:clubId/stock/:cultureId',
+    validate({ params: ClubStockParamsSchema, body: ClubStockUpdateSchema }),
+    async (req, res) => {
+      const { clubId, cultureId } = p(req);
+      res.json({ stock: await clubBank.updateStock(ctx, actor(req), clubId, cultureId, req.body) });
+    },
+  );
+
+  router.post(
+    '/:clubId/stock/:cultureId/withdraw',
+    validate({ params: ClubStockParamsSchema, body: ClubStockWithdrawSchema }),
+    async (req, res) => {
+      const { clubId, cultureId } = p(req);
+      res.status(201).json(await clubBank.withdrawStock(ctx, actor(req), clubId, cultureId, req.body));
     },
   );
 

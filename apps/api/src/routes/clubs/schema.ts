@@ -13,4 +13,8 @@ export {
   StrainRequestParamsSchema,
   StrainRequestReceiveSchema,
   StrainRequestRespondSchema,
+  ClubStockCreateSchema,
+  ClubStockParamsSchema,
+  ClubStockUpdateSchema,
+  ClubStockWithdrawSchema,
 } from '@barmkeep/schemas';
