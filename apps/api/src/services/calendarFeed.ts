@@ -4,7 +4,14 @@ import { maxStorageDays, viabilityCrossingAt, type CultureForm } from '@barmkeep
 import { REMINDER_DEFAULTS, type CalendarFeedDto } from '@barmkeep/schemas';
 import type { ServiceContext } from './context';
 import type { Actor } from './cultureAccess';
-import { findLiveFeed, findLiveFeedByHash, insertFeed, revokeFeeds, touchFeed } from '../db/queries/calendarFeeds';
+import {
+  findLiveFeed,
+  findLiveFeedByHash,
+  insertFeed,
+  lockFeedOwner,
+  revokeFeeds,
+  touchFeed,
+} from '../db/queries/calendarFeeds';
 import { newId, newSecretToken, sha256 } from '../lib/ids';
 import { notFound } from '../lib/errors';
 import { listPlannedEvents } from './reminders/plannedEvents';
@@ -30,6 +37,9 @@ export async function createCalendarFeed(ctx: ServiceContext, actor: Actor): Pro
   const token = newSecretToken();
   const now = ctx.now();
   const row = await ctx.db.transaction(async (tx) => {
+    // Without the lock two requests both find nothing live to revoke, both insert, and the second
+    // fails the one-live-feed index. Under it the second waits, then revokes the first's address.
+    await lockFeedOwner(tx, actor.id);
     await revokeFeeds(tx, actor.id, now);
     return insertFeed(tx, { id: newId(), userId: actor.id, tokenHash: sha256(token), createdAt: now });
   });

@@ -1,6 +1,6 @@
 import { and, eq, isNull } from 'drizzle-orm';
 import type { Db } from '../client';
-import { calendarFeeds, type CalendarFeedRow } from '../schema';
+import { calendarFeeds, users, type CalendarFeedRow } from '../schema';
 
 type Executor = Pick<Db, 'select' | 'insert' | 'update'>;
 
@@ -20,6 +20,15 @@ export async function findLiveFeedByHash(db: Executor, tokenHash: string): Promi
     .where(and(eq(calendarFeeds.tokenHash, tokenHash), isNull(calendarFeeds.revokedAt)))
     .limit(1);
   return row;
+}
+
+/**
+ * Locks the person's row for the rest of the transaction, so one person's feed changes run one
+ * after the other. `no key update` leaves rows that merely reference the person (their cultures,
+ * sessions) free to be written meanwhile.
+ */
+export async function lockFeedOwner(db: Executor, userId: string): Promise<void> {
+  await db.select({ id: users.id }).from(users).where(eq(users.id, userId)).for('no key update');
 }
 
 export async function revokeFeeds(db: Executor, userId: string, now: Date): Promise<void> {
