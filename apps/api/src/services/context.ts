@@ -10,3 +10,16 @@ export interface ServiceContext {
   appUrl: string;
   now: () => Date;
 }
+
+/**
+ * Run `work` in one transaction, handing it a context whose `db` is the transaction, so every
+ * service and query it calls (reads included) runs on the transaction's own connection. Inside,
+ * use only the context passed in: a query sent through the outer `ctx.db` needs a second pool
+ * connection while this one may hold a row lock, and when the pool is full of requests queued on
+ * that same lock nothing moves until the pool gives up.
+ */
+export function inTransaction<T>(ctx: ServiceContext, work: (tx: ServiceContext) => Promise<T>): Promise<T> {
+  // A transaction offers everything services use of Db (select, insert, update, delete, execute,
+  // query, and transaction as a savepoint); only the pool handle `$client` is missing.
+  return ctx.db.transaction((tx) => work({ ...ctx, db: tx as unknown as Db }));
+}

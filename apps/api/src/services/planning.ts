@@ -53,7 +53,7 @@ import { AppError, conflict, notFound, validationFailed } from '../lib/errors';
 import { newId } from '../lib/ids';
 import { canView, type Actor } from './cultureAccess';
 import { getCultureDetail } from './cultures';
-import type { ServiceContext } from './context';
+import { inTransaction, type ServiceContext } from './context';
 
 export interface PlanActor extends Actor {
   timeZone: string;
@@ -340,10 +340,11 @@ function assertOpen(row: StarterPlanRow) {
 
 /** Start the next step of the plan as it stands now; its planned numbers are frozen in the log. */
 export async function startNextStep(ctx: ServiceContext, actor: PlanActor, id: string): Promise<PlanDto> {
-  await ctx.db.transaction(async (tx) => {
-    const row = assertOwnPlan(actor, await findPlanForUpdate(tx, id));
+  await inTransaction(ctx, async (tx) => {
+    // the plan's row lock serializes starts: a second request waits here, then sees the open step
+    const row = assertOwnPlan(actor, await findPlanForUpdate(tx.db, id));
     assertOpen(row);
-    const { steps, computed } = await planState(ctx, actor, row);
+    const { steps, computed } = await planState(tx, actor, row);
     const open = steps.find((s) => !s.completedAt);
     if (open) throw conflict('step_in_progress', `Step ${open.position} is still under way; complete it first`);
     const next = computed.steps[0];
@@ -353,7 +354,7 @@ export async function startNextStep(ctx: ServiceContext, actor: PlanActor, id: s
         computed.noStarterNeeded ? 'No starter is needed for this plan' : 'Every step of this plan is done',
       );
     }
-    await insertStep(tx, {
+    await insertStep(tx.db, {
       id: newId(),
       planId: row.id,
       position: steps.length + 1,
@@ -365,9 +366,9 @@ export async function startNextStep(ctx: ServiceContext, actor: PlanActor, id: s
       startLow: next.startCells.low,
       startHigh: next.startCells.high,
       expectedCells: next.expectedCells,
-      startedAt: ctx.now(),
+      startedAt: tx.now(),
     });
-    await updatePlanRow(tx, row.id, { status: 'in_progress' });
+    await updatePlanRow(tx.db, row.id, { status: 'in_progress' });
   });
   return getPlan(ctx, actor, id);
 }
