@@ -30,6 +30,14 @@ ensure_chromium_installed() {
   fi
 }
 
+ensure_nginx_installed() { # the two-instance test puts nginx in front of two API processes
+  if [ ! -x /usr/sbin/nginx ] && ! command -v nginx >/dev/null 2>&1; then
+    log "installing nginx from Debian"
+    as_root apt-get update -qq
+    DEBIAN_FRONTEND=noninteractive as_root apt-get install -y -qq nginx >/dev/null
+  fi
+}
+
 ensure_node_deps() {
   if ! command -v pnpm >/dev/null 2>&1 || [ "$(pnpm -v 2>/dev/null)" != "10.34.9" ]; then
     log "installing pnpm 10.34.9"

@@ -7,6 +7,7 @@ export TZ=UTC
 export CI="${CI:-}"
 ensure_postgres_installed
 ensure_chromium_installed
+ensure_nginx_installed
 ensure_node_deps
 
 started_pg=0

@@ -6,11 +6,9 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import pg from 'pg';
 import PgBoss from 'pg-boss';
-import { SMTPServer } from 'smtp-server';
-import { simpleParser } from 'mailparser';
-import type { AddressInfo } from 'node:net';
 import { connect, runMigrations } from '../src/db/client';
 import { REMINDER_TICK_QUEUE, REMINDER_USERS_QUEUE } from '../src/jobs/reminders';
+import { controllableSmtp } from './faults/smtp';
 import { Browser, Processes, createDatabase, freePort, spawnNode, startApi, waitFor } from './faults/processes';
 
 const DAY = 86_400_000;
@@ -175,53 +173,6 @@ describe('the API killed mid-stream', () => {
 
 // ---------------------------------------------------------------- the worker
 
-interface Delivered {
-  to: string;
-  subject: string;
-}
-
-/**
- * An SMTP server whose acceptance the test controls: while `holdWhen` matches a message, it is
- * read but never answered, so the sender is stuck mid-send (and the mail counts as not delivered).
- */
-async function controllableSmtp() {
-  const delivered: Delivered[] = [];
-  let holdWhen: (m: Delivered, n: number) => boolean = () => false;
-  let onHeld: () => void = () => {};
-  const server = new SMTPServer({
-    authOptional: true,
-    disabledCommands: ['STARTTLS', 'AUTH'],
-    logger: false,
-    onData(stream, session, callback) {
-      simpleParser(stream)
-        .then((parsed) => {
-          const m = { to: session.envelope.rcptTo.map((r) => r.address).join(','), subject: parsed.subject ?? '' };
-          if (holdWhen(m, delivered.length)) {
-            onHeld();
-            return; // never answered: the sender waits until it dies
-          }
-          delivered.push(m);
-          callback();
-        })
-        .catch((err: Error) => callback(err));
-    },
-  });
-  await new Promise<void>((r) => server.listen(0, '127.0.0.1', () => r()));
-  procs.add('smtp', () => new Promise<void>((r) => server.close(() => r())));
-  return {
-    port: (server.server.address() as AddressInfo).port,
-    delivered,
-    /** Hold the next message matching `when`; resolves when one arrives. */
-    hold(when: (m: Delivered, n: number) => boolean) {
-      holdWhen = when;
-      return new Promise<void>((r) => (onHeld = r));
-    },
-    release() {
-      holdWhen = () => false;
-    },
-  };
-}
-
 describe('the reminders worker killed mid-job', () => {
   it('re-runs the job and sends every notice exactly once, each and digest', async () => {
     const databaseUrl = await createDatabase(procs);
@@ -272,7 +223,7 @@ describe('the reminders worker killed mid-job', () => {
     for (const q of [REMINDER_TICK_QUEUE, REMINDER_USERS_QUEUE])
       await supervisor.createQueue(q, { name: q, retryLimit: 5, retryDelay: 0, expireInSeconds: 4 });
 
-    const smtp = await controllableSmtp();
+    const smtp = await controllableSmtp(procs);
     const workerEnv = {
       DATABASE_URL: databaseUrl,
       FAKE_SMTP_PORT: String(smtp.port),

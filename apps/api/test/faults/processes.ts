@@ -297,6 +297,8 @@ ${upstreams.map((u) => `    server ${u} max_fails=0;`).join('\n')}
       proxy_set_header X-Forwarded-For $proxy_add_x_forwarded_for;
       proxy_set_header X-Forwarded-Proto $scheme;
       proxy_next_upstream off;
+      # which instance answered, so a test can see both take part
+      add_header X-Upstream $upstream_addr always;
     }
   }
 }
