@@ -40,16 +40,31 @@ export async function exportLibraryCsv(ctx: ServiceContext, actor: Actor): Promi
   return [header.join(','), ...lines].join('\r\n') + '\r\n';
 }
 
+/** Parents before children (a re-parented culture may be older than its new parent). */
+function lineageOrder<T extends { id: string; parentId: string | null }>(rows: T[]): T[] {
+  const ids = new Set(rows.map((r) => r.id));
+  const children = new Map<string, T[]>();
+  const out: T[] = [];
+  for (const r of rows) {
+    if (r.parentId && ids.has(r.parentId)) (children.get(r.parentId) ?? children.set(r.parentId, []).get(r.parentId)!).push(r);
+    else out.push(r);
+  }
+  for (let i = 0; i < out.length; i++) out.push(...(children.get(out[i]!.id) ?? []));
+  return out;
+}
+
 export async function exportBackup(ctx: ServiceContext, actor: Actor): Promise<CultureBackup> {
-  const rows = await listAllCultures(ctx.db, visibleCulturesWhere(actor));
+  const rows = lineageOrder(await listAllCultures(ctx.db, visibleCulturesWhere(actor)));
   const events = await listEventsForCultures(ctx.db, rows.map((r) => r.id));
+  const exported = new Set(rows.map((r) => r.id));
   return {
     format: BACKUP_FORMAT,
     version: 1,
     exportedAt: ctx.now().toISOString(),
     cultures: rows.map((r) => ({
       id: r.id,
-      parentId: r.parentId,
+      // a parent the person may not see is not in the file: the culture starts the lineage there
+      parentId: r.parentId && exported.has(r.parentId) ? r.parentId : null,
       generation: r.generation,
       strainName: r.strainName,
       species: r.species,
@@ -124,9 +139,8 @@ export async function importBackup(ctx: ServiceContext, actor: Actor, file: Buff
       if (!idMap.has(c.parentId)) return bad(where, 'Its parent must appear earlier in the file');
       if (ROOT_ONLY_ORIGINS.includes(c.origin)) bad(where, 'Bottle dregs and bought yeast cannot have a parent');
       parentGeneration = generationOf.get(c.parentId);
-    } else if (c.origin === 'reculture') {
-      bad(where, 'A re-culture needs its parent');
     }
+    // a re-culture without a parent is allowed here: its parent was not the person's to export
     const generation = deriveGeneration(parentGeneration === undefined ? undefined : { generation: parentGeneration }, c.origin, c.generation);
     const id = newId();
     idMap.set(c.id, id);

@@ -71,6 +71,19 @@ describe('backup and import', () => {
     expect(events.filter((e: { supersededByEventId: string | null }) => e.supersededByEventId)).toHaveLength(1);
   });
 
+  it('exports parents before children even after a culture was moved under a younger one', async () => {
+    const { agent, root } = await keeperWithLineage();
+    const older = (await agent.post('/api/cultures').send(buildSlurry(undefined)).expect(201)).body.culture;
+    const younger = (await agent.post('/api/cultures').send(buildReculture(root.id)).expect(201)).body.culture;
+    await agent.patch(`/api/cultures/${older.id}`).send({ parentId: younger.id }).expect(200);
+    const backup = JSON.parse((await download(agent, '/api/cultures/backup.json').expect(200)).body as string);
+    const at = (id: string) => backup.cultures.findIndex((c: { id: string }) => c.id === id);
+    expect(at(younger.id)).toBeLessThan(at(older.id));
+    const other = t.agent();
+    await signUp(other);
+    await other.post('/api/cultures/backup').attach('file', Buffer.from(JSON.stringify(backup)), 'b.json').expect(201);
+  });
+
   it('a bad file changes nothing and says which row is wrong', async () => {
     const { agent } = await keeperWithLineage();
     const backup = JSON.parse((await download(agent, '/api/cultures/backup.json').expect(200)).body as string);
