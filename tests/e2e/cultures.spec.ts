@@ -53,7 +53,7 @@ test('bottle dregs to a quarantined lineage: add, count, photo, re-culture twice
   await upload.getByRole('button', { name: 'Upload' }).click();
   const thumb = page.getByRole('img', { name: 'Sediment after swirling' });
   await expect(thumb).toBeVisible();
-  await expect.poll(() => thumb.evaluate((img: HTMLImageElement) => img.naturalWidth)).toBeGreaterThan(0);
+  await expect.poll(() => thumb.evaluate((img) => (img as unknown as { naturalWidth: number }).naturalWidth)).toBeGreaterThan(0);
 
   // Re-culture it, then re-culture the child.
   for (const name of ['Lamplighter slant', 'Lamplighter starter']) {
