@@ -36,7 +36,7 @@ vitest_suite() { # vitest_suite NAME FILTER
   suites+=("$1:vitest")
 }
 
-check typecheck pnpm -r --silent typecheck
+check typecheck pnpm -r --reporter=append-only typecheck
 check lint pnpm --silent exec eslint .
 check format pnpm --silent exec prettier --check . --log-level warn
 vitest_suite core @barmkeep/core
