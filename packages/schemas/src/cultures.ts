@@ -517,7 +517,10 @@ export interface LineageNodeDto {
   id: string;
   parentId: string | null;
   depth: number;
+  /** strain, generation, state and keeper are shown (the viewer's own, or a fellow club member's) */
   visible: boolean;
+  /** the viewer may open the culture itself (only their own): notes, log and photos */
+  openable: boolean;
   strainName: string | null;
   generation: number;
   state: CultureState | null;

@@ -93,16 +93,24 @@ export function presentEvent(e: CultureEventRow, authorName: string | null, supe
   };
 }
 
-/** A node the viewer may not see keeps its place in the tree and nothing else. */
-export function presentLineageNode(n: LineageRow, visible: boolean): LineageNodeDto {
-  if (!visible) {
-    return { id: n.id, parentId: n.parent_id, depth: n.depth, visible: false, strainName: null, generation: n.generation, state: null, form: null, suspect: false, owner: null };
+/**
+ * How much of a lineage node the viewer gets (services/cultureAccess.ts decides):
+ * - 'full': their own (openable);
+ * - 'path': a fellow club member's: the strain's path and the keeper's name, nothing private;
+ * - 'hidden': keeps its place in the tree and nothing else.
+ */
+export type LineageDetail = 'full' | 'path' | 'hidden';
+
+export function presentLineageNode(n: LineageRow, detail: LineageDetail): LineageNodeDto {
+  if (detail === 'hidden') {
+    return { id: n.id, parentId: n.parent_id, depth: n.depth, visible: false, openable: false, strainName: null, generation: n.generation, state: null, form: null, suspect: false, owner: null };
   }
   return {
     id: n.id,
     parentId: n.parent_id,
     depth: n.depth,
     visible: true,
+    openable: detail === 'full',
     strainName: n.strain_name,
     generation: n.generation,
     state: n.state,

@@ -1,6 +1,7 @@
 import { eq, type SQL } from 'drizzle-orm';
 import { cultures, type CultureRow } from '../db/schema';
 import { findCultureById } from '../db/queries/cultures';
+import { findClubTies } from '../db/queries/clubs';
 import { forbidden, notFound, validationFailed } from '../lib/errors';
 import type { Db } from '../db/client';
 
@@ -26,6 +27,28 @@ export function canEdit(actor: Actor, c: AccessFields): boolean {
 /** May `actor` start a new culture from `parent` (re-culture, split, harvest)? */
 export function canUseAsParent(actor: Actor, parent: AccessFields): boolean {
   return canEdit(actor, parent);
+}
+
+/** Whom a person shares a club with: loaded once per lineage with `loadLineageTies`. */
+export interface LineageTies {
+  clubIds: ReadonlySet<string>;
+  coMemberIds: ReadonlySet<string>;
+}
+
+/**
+ * The middle level, for lineage trees only. A culture kept by someone who shares a club with the
+ * actor (or owned by one of the actor's clubs) shows its place in the strain's path: strain name,
+ * generation, form, state, suspicion and the keeper's name. Never its notes, log, photos or where
+ * it is kept; those stay behind `canView`.
+ */
+export function canSeeInLineage(actor: Actor, c: AccessFields, ties: LineageTies): boolean {
+  if (canView(actor, c)) return true;
+  if (c.ownerClubId !== null && ties.clubIds.has(c.ownerClubId)) return true;
+  return ties.coMemberIds.has(c.ownerUserId);
+}
+
+export async function loadLineageTies(db: Db, actor: Actor): Promise<LineageTies> {
+  return findClubTies(db, actor.id);
 }
 
 /** The SQL predicate matching exactly the cultures `canView` allows, for lists and exports. */

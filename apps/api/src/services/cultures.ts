@@ -40,13 +40,16 @@ import {
   assertCanEdit,
   assertUsableParent,
   canEdit,
+  canSeeInLineage,
   canView,
   loadCultureForView,
+  loadLineageTies,
   visibleCulturesWhere,
   type Actor,
 } from './cultureAccess';
 import { attentionOf, healthOf, projectedViabilityOf, viabilitySeries } from './cultureHealth';
 import { deriveGeneration, PARENT_REQUIRED_ORIGINS, ROOT_ONLY_ORIGINS } from './cultureLineage';
+import { alertLineage } from './lineageAlerts';
 import {
   presentCultureDetail,
   presentCultureSummary,
@@ -271,9 +274,14 @@ export async function listCultureEvents(ctx: ServiceContext, actor: Actor, id: s
 export async function getLineage(ctx: ServiceContext, actor: Actor, id: string) {
   await loadCultureForView(ctx.db, actor, id);
   const rows = await lineageOf(ctx.db, id);
-  const nodes = rows.map((r) =>
-    presentLineageNode(r, canView(actor, { ownerUserId: r.owner_user_id, ownerClubId: r.owner_club_id, visibility: r.visibility })),
-  );
+  // club ties matter only when someone else keeps part of the tree
+  const ties = rows.some((r) => r.owner_user_id !== actor.id)
+    ? await loadLineageTies(ctx.db, actor)
+    : { clubIds: new Set<string>(), coMemberIds: new Set<string>() };
+  const nodes = rows.map((r) => {
+    const c = { ownerUserId: r.owner_user_id, ownerClubId: r.owner_club_id, visibility: r.visibility };
+    return presentLineageNode(r, canView(actor, c) ? 'full' : canSeeInLineage(actor, c, ties) ? 'path' : 'hidden');
+  });
   return { focusId: id, rootId: rows[0]?.id ?? id, nodes };
 }
 
@@ -646,7 +654,9 @@ export async function quarantineCulture(
         data: { fromCultureId: root.id, fromEventId: eventId },
       })),
     );
-    return { flagged: requested.length, eventId };
+    // descendants in other people's keeping, across owners and clubs: flagged, keepers told
+    const across = await alertLineage({ db: tx, now: ctx.now }, actor.id, root, eventId);
+    return { flagged: requested.length + across.othersFlagged, eventId, keepersNotified: across.keepersNotified };
   });
 }
 

@@ -176,3 +176,18 @@ export async function listStock(db: DbOrTx, clubId: string) {
     .where(eq(clubStock.clubId, clubId))
     .orderBy(cultures.strainName, clubStock.cultureId);
 }
+
+/** Clubs where any of these cultures was listed or handed on: they hear about a quarantine. */
+export async function clubsTouchingCultures(db: DbOrTx, cultureIds: string[]): Promise<string[]> {
+  if (cultureIds.length === 0) return [];
+  const ids = sql.join(
+    cultureIds.map((id) => sql`${id}`),
+    sql`, `,
+  );
+  const result = await db.execute<{ club_id: string }>(sql`
+    select club_id from club_listings where culture_id in (${ids})
+    union
+    select club_id from strain_requests where culture_id in (${ids}) or received_culture_id in (${ids})
+  `);
+  return result.rows.map((r) => r.club_id);
+}

@@ -218,3 +218,16 @@ export async function consumeInvitation(db: DbOrTx, invitationId: string, userId
     .returning();
   return row;
 }
+
+/** The clubs a person belongs to and everyone who shares at least one of them (the person included). */
+export async function findClubTies(db: DbOrTx, userId: string) {
+  const result = await db.execute<{ club_id: string; user_id: string }>(sql`
+    select m.club_id, m.user_id
+    from memberships mine join memberships m on m.club_id = mine.club_id
+    where mine.user_id = ${userId}
+  `);
+  return {
+    clubIds: new Set(result.rows.map((r) => r.club_id)),
+    coMemberIds: new Set(result.rows.map((r) => r.user_id)),
+  };
+}
