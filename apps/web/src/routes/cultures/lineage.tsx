@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router';
 import { useQuery } from '@tanstack/react-query';
 import { stratify, tree, type HierarchyNode, type HierarchyPointNode } from 'd3-hierarchy';
@@ -17,10 +17,10 @@ export const COLLAPSE_ABOVE = 200;
 function initialCollapsed(root: HierarchyNode<LineageNodeDto>, focusId: string): Set<string> {
   const collapsed = new Set<string>();
   if (root.descendants().length <= COLLAPSE_ABOVE) return collapsed;
-  const keepOpen = new Set(root.find((n) => n.id === focusId)?.ancestors().map((a) => a.id!) ?? []);
+  const keepOpen = new Set(root.find((n) => n.data.id === focusId)?.ancestors().map((a) => a.data.id) ?? []);
   // open the first two levels, then fold every branch off the path to the focus
   root.each((n) => {
-    if (n.depth >= 2 && n.children && !keepOpen.has(n.id!)) collapsed.add(n.id!);
+    if (n.depth >= 2 && n.children && !keepOpen.has(n.data.id)) collapsed.add(n.data.id);
   });
   return collapsed;
 }
@@ -42,8 +42,9 @@ export function Component() {
   const layout = useMemo(() => {
     if (!root) return null;
     const visible = root.copy();
+    // copy() keeps the data but not the stratify ids: fold by data id
     visible.each((n) => {
-      if (folded.has(n.id!)) {
+      if (folded.has(n.data.id)) {
         (n as HierarchyNode<LineageNodeDto> & { hidden?: number }).hidden = n.descendants().length - 1;
         n.children = undefined;
       }
@@ -59,6 +60,20 @@ export function Component() {
     });
     return { laid, minX, height: maxX - minX + ROW * 2, width: maxY + NODE_W + 40 };
   }, [root, folded]);
+
+  // bring the culture you came from into view
+  const scroller = useRef<HTMLDivElement>(null);
+  const focusPoint = useMemo(() => {
+    if (!layout || !data) return null;
+    const f = layout.laid.find((n) => n.data.id === data.focusId);
+    return f ? { top: f.x - layout.minX + ROW, left: f.y } : null;
+  }, [layout, data]);
+  useEffect(() => {
+    const el = scroller.current;
+    if (!el || !focusPoint) return;
+    el.scrollTop = Math.max(0, focusPoint.top - el.clientHeight / 2);
+    el.scrollLeft = Math.max(0, focusPoint.left - el.clientWidth / 3);
+  }, [focusPoint]);
 
   if (isError) return <Notice tone="danger" title="Could not load the lineage">{error.message}</Notice>;
   if (!data || !layout || !root) return <Loading label="Tracing the lineage…" />;
@@ -86,7 +101,7 @@ export function Component() {
         }
       />
       <p className="mb-3 text-sm text-ink-muted">Each box: name, generation and state. A red edge marks a suspect or quarantined culture. Tap a box to open it; tap “+n” to unfold a branch.</p>
-      <div className="overflow-auto rounded-lg border border-rule bg-paper-raised" style={{ maxHeight: '70vh' }}>
+      <div ref={scroller} className="overflow-auto rounded-lg border border-rule bg-paper-raised" style={{ maxHeight: '70vh' }}>
         <svg width={layout.width} height={layout.height} role="tree" aria-label="Lineage tree">
           <g transform={`translate(10, ${-layout.minX + ROW})`}>
             {layout.laid.links().map((l) => (
@@ -127,13 +142,11 @@ export function Component() {
                       <text x={7} y={23} fontSize={12} fill="var(--color-ink-faint)">not shared with you</text>
                     </>
                   )}
-                  {n.hidden || (n.children && root.find((r) => r.id === d.id)?.children) ? (
-                    n.hidden ? (
+                  {n.hidden ? (
                       <g transform={`translate(${NODE_W + 4}, 9)`} className="cursor-pointer" onClick={() => toggle(d.id)} role="button" aria-label={`Unfold ${n.hidden} below`}>
                         <rect width={36} height={20} rx={10} fill="var(--color-paper-sunk)" stroke="var(--color-rule-strong)" />
                         <text x={18} y={14} fontSize={11} textAnchor="middle" fill="var(--color-ink)">+{n.hidden}</text>
                       </g>
-                    ) : null
                   ) : null}
                 </g>
               );
