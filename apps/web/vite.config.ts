@@ -14,7 +14,8 @@ export default defineConfig({
   plugins: [react(), tailwindcss()],
   server: { host: '127.0.0.1', port: 5173, proxy: apiProxy },
   preview: { host: '127.0.0.1', port: 4173, proxy: apiProxy },
-  build: { outDir: 'dist', emptyOutDir: true },
+  // the manifest feeds the bundle budget check (infra/bundle-budget.mjs)
+  build: { outDir: 'dist', emptyOutDir: true, manifest: true },
   test: {
     environment: 'jsdom',
     include: ['src/**/*.test.{ts,tsx}'],
