@@ -2,11 +2,12 @@ import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { useQueries, useQuery } from '@tanstack/react-query';
 import { useNavigate, useSearchParams } from 'react-router';
-import { computeBrewPlan, PITCH_RATE_PRESETS, pitchRatePresetFor, type BrewPlan } from '@barmkeep/core';
+import { computeBrewPlan, PITCH_RATE_PRESETS, pitchRatePresetFor, sgFromPlato, type BrewPlan } from '@barmkeep/core';
 import {
   BEER_TYPES,
   cultureCellsInputOf,
   makePlanCreateSchema,
+  planningLimits,
   planEquipmentOf,
   type BeerType,
   type BrewPlanDto,
@@ -137,6 +138,12 @@ function Planner({ user }: { user: UserDto }) {
         const field = FIELD_OF[String(issue.path[0])];
         if (field && !errors[field]) errors[field] = issue.message;
       }
+      // The schema checks °P; a person who types SG gets the same rule in SG.
+      if (errors.gravity && user.gravityUnit === 'sg') {
+        const lo = sgFromPlato(planningLimits.ogMinPlato).toFixed(3);
+        const hi = sgFromPlato(planningLimits.ogMaxPlato).toFixed(3);
+        errors.gravity = `Enter the original gravity as SG between ${lo} and ${hi}, e.g. 1.048`;
+      }
       return { errors };
     }
     const d = details.map((q) => q.data);
@@ -172,7 +179,13 @@ function Planner({ user }: { user: UserDto }) {
     }
   })();
 
-  const shownError = (field: keyof FormValues) => serverErrors[field] ?? (submitted ? live.errors[field] : undefined);
+  // A field's own problem shows as soon as something is typed into it; empty fields wait for Save.
+  const typedInto = (field: keyof FormValues) => {
+    const v = values[field];
+    return typeof v === 'string' && v.trim() !== '';
+  };
+  const shownError = (field: keyof FormValues) =>
+    serverErrors[field] ?? (submitted || typedInto(field) ? live.errors[field] : undefined);
   const gravityNum = num(values.gravity ?? '');
   const suggested =
     values.purpose === 'batch' && gravityNum !== undefined && !Number.isNaN(gravityNum)
@@ -257,9 +270,9 @@ function Planner({ user }: { user: UserDto }) {
                 ))}
               </ul>
             )}
-            {shownError('cultureIds') || live.errors.cultureIds ? (
+            {shownError('cultureIds') ? (
               <p className="text-sm text-danger" role="alert">
-                {shownError('cultureIds') ?? live.errors.cultureIds}
+                {shownError('cultureIds')}
               </p>
             ) : null}
           </fieldset>
