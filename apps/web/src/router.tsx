@@ -64,6 +64,10 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: () => import('./routes/club'),
               children: [
                 { index: true, lazy: () => import('./routes/club-about') },
+                { path: 'bank', lazy: () => import('./routes/club-bank') },
+                { path: 'stock', lazy: () => import('./routes/club-stock') },
+                { path: 'requests', lazy: () => import('./routes/club-requests') },
+                { path: 'activity', lazy: () => import('./routes/club-activity') },
                 { path: 'members', lazy: () => import('./routes/club-members') },
                 { path: 'invitations', lazy: () => import('./routes/club-invitations') },
                 { path: 'settings', lazy: () => import('./routes/club-settings') },

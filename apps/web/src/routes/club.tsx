@@ -21,6 +21,10 @@ export const canSteward = (club: ClubDto) => club.myRole === 'owner' || club.myR
 function ClubTabs({ club }: { club: ClubDto }) {
   const tabs = [
     { to: '', label: 'About', end: true, show: true },
+    { to: 'bank', label: 'Bank', end: false, show: true },
+    { to: 'stock', label: 'Stock', end: false, show: true },
+    { to: 'requests', label: 'Requests', end: false, show: true },
+    { to: 'activity', label: 'Activity', end: false, show: true },
     { to: 'members', label: 'Members', end: false, show: true },
     { to: 'invitations', label: 'Invitations', end: false, show: canSteward(club) },
     { to: 'settings', label: 'Settings', end: false, show: club.myRole === 'owner' },

@@ -1,5 +1,13 @@
-import { queryOptions } from '@tanstack/react-query';
-import type { ClubDto, ClubInvitationDto, ClubMemberDto } from '@barmkeep/schemas';
+import { infiniteQueryOptions, queryOptions } from '@tanstack/react-query';
+import type {
+  ClubActivityDto,
+  ClubDto,
+  ClubInvitationDto,
+  ClubListingDto,
+  ClubMemberDto,
+  ClubStockDto,
+  StrainRequestDto,
+} from '@barmkeep/schemas';
 import { api } from '../client';
 
 export const clubKeys = {
@@ -10,7 +18,19 @@ export const clubKeys = {
   detail: (clubId: string) => [...clubKeys.details(), clubId] as const,
   members: (clubId: string) => [...clubKeys.detail(clubId), 'members'] as const,
   invitations: (clubId: string) => [...clubKeys.detail(clubId), 'invitations'] as const,
+  bank: (clubId: string) => [...clubKeys.detail(clubId), 'bank'] as const,
+  stock: (clubId: string) => [...clubKeys.detail(clubId), 'stock'] as const,
+  requests: (clubId: string) => [...clubKeys.detail(clubId), 'requests'] as const,
+  activity: (clubId: string) => [...clubKeys.detail(clubId), 'activity'] as const,
 };
+
+const clubPath = (clubId: string) => `/clubs/${encodeURIComponent(clubId)}`;
+export const ACTIVITY_PAGE = 20;
+
+export interface ClubActivityPage {
+  activity: ClubActivityDto[];
+  nextBefore: string | null;
+}
 
 export const clubQueries = {
   list: () =>
@@ -39,5 +59,35 @@ export const clubQueries = {
         api
           .get<{ invitations: ClubInvitationDto[] }>(`/clubs/${encodeURIComponent(clubId)}/invitations`, signal)
           .then((r) => r.invitations),
+    }),
+  bank: (clubId: string) =>
+    queryOptions({
+      queryKey: clubKeys.bank(clubId),
+      queryFn: ({ signal }) =>
+        api.get<{ listings: ClubListingDto[] }>(`${clubPath(clubId)}/bank`, signal).then((r) => r.listings),
+    }),
+  stock: (clubId: string) =>
+    queryOptions({
+      queryKey: clubKeys.stock(clubId),
+      queryFn: ({ signal }) =>
+        api.get<{ stock: ClubStockDto[] }>(`${clubPath(clubId)}/stock`, signal).then((r) => r.stock),
+    }),
+  requests: (clubId: string) =>
+    queryOptions({
+      queryKey: clubKeys.requests(clubId),
+      queryFn: ({ signal }) =>
+        api.get<{ requests: StrainRequestDto[] }>(`${clubPath(clubId)}/requests`, signal).then((r) => r.requests),
+    }),
+  /** newest first, one page at a time (cursor: the last row's time and id) */
+  activity: (clubId: string) =>
+    infiniteQueryOptions({
+      queryKey: clubKeys.activity(clubId),
+      initialPageParam: null as string | null,
+      queryFn: ({ signal, pageParam }) =>
+        api.get<ClubActivityPage>(
+          `${clubPath(clubId)}/activity?limit=${ACTIVITY_PAGE}${pageParam ? `&before=${encodeURIComponent(pageParam)}` : ''}`,
+          signal,
+        ),
+      getNextPageParam: (last) => last.nextBefore,
     }),
 };

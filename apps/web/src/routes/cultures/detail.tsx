@@ -25,6 +25,7 @@ import { isApiError } from '../../api/client';
 import { Button, ButtonLink, Card, FormAlert, Loading, Notice, PageHeader, Select, TextField, cx } from '../../components';
 import { actionLabels, eventLabels, formatCells, formatDate, formLabels, originLabels, pct, stateLabels } from '../../lib/cultureLabels';
 import { formatDateTime } from '../../lib/format';
+import { OfferInClub } from '../../components/clubs/OfferInClub';
 
 const ViabilityChart = lazy(() => import('./ViabilityChart'));
 
@@ -369,6 +370,7 @@ function Quarantine({ c, onClose }: { c: CultureDetailDto; onClose: () => void }
           ))}
         </ul>
       ) : null}
+      <p className="text-sm">Cultures grown from it that other people keep, through a club or a gift, are flagged as suspect too, and each of their keepers is told.</p>
       <TextField label="What did you see? (optional)" value={notes} onChange={(e) => setNotes(e.target.value)} />
       <p className="text-sm text-ink-muted">Dispose of contaminated cultures as your local rules say; sanitise everything they touched.</p>
       <FormAlert message={errorText(quarantine.error)} />
@@ -473,6 +475,7 @@ export function Component() {
         </Card>
         <Health c={c} />
         <Actions c={c} />
+        <OfferInClub culture={c} />
         <Log c={c} />
         <Photos c={c} />
       </div>

@@ -118,7 +118,9 @@ export function Component() {
               const danger = d.suspect || d.state === 'quarantined';
               return (
                 <g key={d.id} transform={`translate(${n.y}, ${n.x - NODE_H / 2})`} role="treeitem" aria-level={n.depth + 1} aria-selected={isFocus}>
-                  {d.visible ? (
+                  {d.visible && !d.openable ? (
+                    <PathNode d={d} danger={danger} isFocus={isFocus} />
+                  ) : d.visible ? (
                     <a href={`/cultures/${d.id}`} onClick={(e) => { e.preventDefault(); navigate(`/cultures/${d.id}`); }}>
                       <rect
                         width={NODE_W}
@@ -154,6 +156,69 @@ export function Component() {
           </g>
         </svg>
       </div>
+      <KeepersOf nodes={data.nodes} />
     </>
+  );
+}
+
+/** A fellow club member's culture: its place in the strain's path and its keeper, not a link. */
+function PathNode({ d, danger, isFocus }: { d: LineageNodeDto; danger: boolean; isFocus: boolean }) {
+  const keeper = d.owner?.name ?? 'another member';
+  return (
+    <g>
+      <rect
+        width={NODE_W}
+        height={NODE_H}
+        rx={5}
+        fill="var(--color-paper-raised)"
+        stroke={danger ? 'var(--color-danger)' : isFocus ? 'var(--color-accent)' : 'var(--color-rule-strong)'}
+        strokeWidth={danger || isFocus ? 2 : 1}
+        strokeDasharray="4 3"
+      />
+      <text x={7} y={15} fontSize={12} fontWeight={600} fill="var(--color-ink)">
+        {(d.strainName ?? '').slice(0, 24)}{(d.strainName ?? '').length > 24 ? '…' : ''}
+      </text>
+      <text x={7} y={30} fontSize={11} fill={danger ? 'var(--color-danger)' : 'var(--color-ink-muted)'}>
+        gen {d.generation} · {keeper.slice(0, 18)}{d.suspect ? ' · suspect' : ''}
+      </text>
+      <title>{`${d.strainName} — generation ${d.generation}, kept by ${keeper}${d.suspect ? ', suspect' : ''}. Only its keeper can open it.`}</title>
+    </g>
+  );
+}
+
+/** Who keeps the cultures in this tree, in words (the boxes show it only on hover). */
+function KeepersOf({ nodes }: { nodes: LineageNodeDto[] }) {
+  const counts = new Map<string, { name: string; n: number }>();
+  let hidden = 0;
+  for (const n of nodes) {
+    if (!n.visible || !n.owner) {
+      hidden += n.visible ? 0 : 1;
+      continue;
+    }
+    const c = counts.get(n.owner.id) ?? { name: n.owner.name, n: 0 };
+    c.n += 1;
+    counts.set(n.owner.id, c);
+  }
+  if (counts.size < 2 && hidden === 0) return null;
+  return (
+    <section aria-label="Keepers in this lineage" className="mt-3 text-sm">
+      <h2 className="font-semibold">Kept by</h2>
+      <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1">
+        {[...counts].map(([id, c]) => (
+          <li key={id}>
+            {c.name} <span className="num text-ink-muted">({c.n})</span>
+          </li>
+        ))}
+        {hidden ? (
+          <li className="text-ink-muted">
+            people you share no club with <span className="num">({hidden})</span>
+          </li>
+        ) : null}
+      </ul>
+      <p className="mt-1 text-ink-muted">
+        Dashed boxes are fellow club members’ cultures: you see the strain’s path and who keeps it; their notes and photos
+        stay theirs.
+      </p>
+    </section>
   );
 }
