@@ -134,6 +134,8 @@ interface Measured {
   errors: number;
   non2xx: number;
   requests: number;
+  /** status codes other than 2xx, with counts */
+  codes: string;
 }
 
 function summarize(r: autocannon.Result): Measured {
@@ -144,6 +146,10 @@ function summarize(r: autocannon.Result): Measured {
     errors: r.errors + r.timeouts,
     non2xx: r.non2xx,
     requests: r.requests.total,
+    codes: Object.entries(r.statusCodeStats ?? {})
+      .filter(([code]) => !code.startsWith('2'))
+      .map(([code, v]) => `${code}×${(v as { count: number }).count}`)
+      .join(', '),
   };
 }
 
@@ -293,7 +299,7 @@ function writeDocs(r: {
     '| --- | --- | --- | --- | --- | --- | --- | --- | --- | --- |',
     ...r.rounds.map(
       (x) =>
-        `| ${x.round} | ${x.api.rps.toFixed(0)} | ${x.api.p50} ms | ${x.api.p99} ms | ${x.api.errors} + ${x.api.non2xx} of ${x.api.requests} | ${x.bare.rps.toFixed(0)} | ${x.bare.p99} ms | ${(x.api.rps / x.bare.rps).toFixed(3)} | ${(x.api.p99 / Math.max(1, x.bare.p99)).toFixed(1)}× | ${x.rssA.toFixed(0)} / ${x.rssB.toFixed(0)} MB |`,
+        `| ${x.round} | ${x.api.rps.toFixed(0)} | ${x.api.p50} ms | ${x.api.p99} ms | ${x.api.errors} + ${x.api.non2xx}${x.api.codes ? ` (${x.api.codes})` : ''} of ${x.api.requests} | ${x.bare.rps.toFixed(0)} | ${x.bare.p99} ms | ${(x.api.rps / x.bare.rps).toFixed(3)} | ${(x.api.p99 / Math.max(1, x.bare.p99)).toFixed(1)}× | ${x.rssA.toFixed(0)} / ${x.rssB.toFixed(0)} MB |`,
     ),
   ];
   const doc = path.join(REPO_ROOT, 'docs/performance.md');

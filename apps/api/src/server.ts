@@ -39,6 +39,10 @@ const server = app.listen(env.PORT, env.HOST, () => {
     for (const u of demoUsers) console.log(`  ${u}`);
   }
 });
+// Idle keep-alive connections outlive a load balancer's own idle timeout (60 s in nginx and most
+// cloud balancers), so the balancer closes them, never Node mid-reuse (a 502 under load otherwise).
+server.keepAliveTimeout = 65_000;
+server.headersTimeout = 66_000;
 
 async function shutdown() {
   server.close();
