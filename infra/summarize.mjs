@@ -15,7 +15,9 @@ for (const spec of suites) {
     continue;
   }
   const report = JSON.parse(readFileSync(file, 'utf8'));
-  let p = 0, f = 0, s = 0;
+  let p = 0,
+    f = 0,
+    s = 0;
   if (kind === 'vitest') {
     p = report.numPassedTests ?? 0;
     f = (report.numFailedTests ?? 0) + (report.success === false && !report.numFailedTests ? 1 : 0);

@@ -7,7 +7,9 @@ const JAR_PNG = Buffer.from(
   'base64',
 );
 
-test('bottle dregs to a quarantined lineage: add, count, photo, re-culture twice, flag descendants', async ({ page }) => {
+test('bottle dregs to a quarantined lineage: add, count, photo, re-culture twice, flag descendants', async ({
+  page,
+}) => {
   test.setTimeout(150_000); // a long journey through many pages
   await signUpThroughForm(page);
 
@@ -45,15 +47,21 @@ test('bottle dregs to a quarantined lineage: add, count, photo, re-culture twice
 
   // Upload a photo; a text file dressed as a JPEG is refused.
   const upload = page.getByRole('form', { name: 'Upload a photo' });
-  await upload.getByLabel('Photo', { exact: true }).setInputFiles({ name: 'notes.jpg', mimeType: 'image/jpeg', buffer: Buffer.from('just text') });
+  await upload
+    .getByLabel('Photo', { exact: true })
+    .setInputFiles({ name: 'notes.jpg', mimeType: 'image/jpeg', buffer: Buffer.from('just text') });
   await upload.getByRole('button', { name: 'Upload' }).click();
   await expect(upload.getByText(/not a photo we can read/)).toBeVisible();
-  await upload.getByLabel('Photo', { exact: true }).setInputFiles({ name: 'jar.png', mimeType: 'image/png', buffer: JAR_PNG });
+  await upload
+    .getByLabel('Photo', { exact: true })
+    .setInputFiles({ name: 'jar.png', mimeType: 'image/png', buffer: JAR_PNG });
   await upload.getByLabel('Caption (optional)').fill('Sediment after swirling');
   await upload.getByRole('button', { name: 'Upload' }).click();
   const thumb = page.getByRole('img', { name: 'Sediment after swirling' });
   await expect(thumb).toBeVisible();
-  await expect.poll(() => thumb.evaluate((img) => (img as unknown as { naturalWidth: number }).naturalWidth)).toBeGreaterThan(0);
+  await expect
+    .poll(() => thumb.evaluate((img) => (img as unknown as { naturalWidth: number }).naturalWidth))
+    .toBeGreaterThan(0);
 
   // Re-culture it, then re-culture the child.
   for (const name of ['Lamplighter slant', 'Lamplighter starter']) {

@@ -21,7 +21,10 @@ export async function signUpThroughForm(page: Page, keeper = newKeeper()) {
   await page.goto('/sign-up');
   await page.getByLabel(/name/i).first().fill(keeper.name);
   await page.getByLabel(/e-mail/i).fill(keeper.email);
-  await page.getByLabel(/password/i).first().fill(keeper.password);
+  await page
+    .getByLabel(/password/i)
+    .first()
+    .fill(keeper.password);
   await page.getByRole('button', { name: /create account|sign up/i }).click();
   await expect(page).toHaveURL(/\/$/);
   return keeper;
@@ -31,7 +34,9 @@ export async function signUpThroughForm(page: Page, keeper = newKeeper()) {
 export async function latestMailTo(request: APIRequestContext, to: string) {
   for (let i = 0; i < 40; i++) {
     const res = await request.get('/api/dev/mail');
-    const { messages } = (await res.json()) as { messages: { id: string; to: string[]; subject: string; text: string }[] };
+    const { messages } = (await res.json()) as {
+      messages: { id: string; to: string[]; subject: string; text: string }[];
+    };
     const m = messages.find((x) => x.to.includes(to));
     if (m) return m;
     await new Promise((r) => setTimeout(r, 250));

@@ -44,11 +44,25 @@ const rand = mulberry32(20261201);
 const pick = <T>(xs: readonly T[]) => xs[Math.floor(rand() * xs.length)]!;
 
 const TEMP: Record<CultureForm, number> = {
-  liquid_pack: 4, dry_pack: 4, slurry_washed: 3, slurry_unwashed: 3, bottle_dregs: 4, slant: 4, plate: 4, frozen_glycerol: -20,
+  liquid_pack: 4,
+  dry_pack: 4,
+  slurry_washed: 3,
+  slurry_unwashed: 3,
+  bottle_dregs: 4,
+  slant: 4,
+  plate: 4,
+  frozen_glycerol: -20,
 };
 
 /** One lineage of `size` nodes: a chain to depth `maxDepth` first, then random parents above that depth. */
-function lineage(prefix: string, size: number, maxDepth: number, owner: string, club: string, now: Date): CultureInsert[] {
+function lineage(
+  prefix: string,
+  size: number,
+  maxDepth: number,
+  owner: string,
+  club: string,
+  now: Date,
+): CultureInsert[] {
   const rows: CultureInsert[] = [];
   const depth: number[] = [];
   for (let i = 0; i < size; i++) {
@@ -71,7 +85,8 @@ function lineage(prefix: string, size: number, maxDepth: number, owner: string, 
       strainName: `Bench strain ${prefix} #${i}`,
       tags: ['bench'],
       origin: i === 0 ? 'purchased' : 'reculture',
-      originDetails: i === 0 ? { origin: 'purchased', maker: 'Invented Bench Yeast' } : { origin: 'reculture', method: 'starter' },
+      originDetails:
+        i === 0 ? { origin: 'purchased', maker: 'Invented Bench Yeast' } : { origin: 'reculture', method: 'starter' },
       form,
       amount: form === 'slurry_washed' || form === 'slurry_unwashed' ? { volumeMl: 150 } : {},
       storageTempC: TEMP[form],
@@ -80,7 +95,8 @@ function lineage(prefix: string, size: number, maxDepth: number, owner: string, 
       stateChangedAt: madeAt,
       stateChangedBy: owner,
     };
-    row.attentionDueAt = attentionOf({ form, storageTempC: row.storageTempC, madeAt, state: row.state! })?.dueAt ?? null;
+    row.attentionDueAt =
+      attentionOf({ form, storageTempC: row.storageTempC, madeAt, state: row.state! })?.dueAt ?? null;
     rows.push(row);
   }
   return rows;
@@ -88,7 +104,12 @@ function lineage(prefix: string, size: number, maxDepth: number, owner: string, 
 
 const AUTOCANNON = fileURLToPath(new URL('../node_modules/.bin/autocannon', import.meta.url));
 /** autocannon in its own process, so its HTTP client does not share the server's thread. */
-async function cannon(o: { url: string; connections: number; duration: number; cookie: string }): Promise<autocannon.Result> {
+async function cannon(o: {
+  url: string;
+  connections: number;
+  duration: number;
+  cookie: string;
+}): Promise<autocannon.Result> {
   const { stdout } = await promisify(execFile)(
     AUTOCANNON,
     ['-j', '-c', String(o.connections), '-d', String(o.duration), '-t', '60', '-H', `cookie=${o.cookie}`, o.url],
@@ -117,7 +138,12 @@ async function rawLoop(pool: pg.Pool, queries: unknown[], seconds: number, conne
     }),
   );
   latencies.sort((a, b) => a - b);
-  return { p50: pct(latencies, 50), p99: pct(latencies, 99), mean: latencies.reduce((a, b) => a + b, 0) / latencies.length, rps: done / seconds };
+  return {
+    p50: pct(latencies, 50),
+    p99: pct(latencies, 99),
+    mean: latencies.reduce((a, b) => a + b, 0) / latencies.length,
+    rps: done / seconds,
+  };
 }
 
 async function main() {
@@ -137,18 +163,34 @@ async function main() {
     const now = new Date();
     const owner = 'bench-steward';
     const password = 'bench-password-long-enough';
-    await database.db.insert(users).values({ id: owner, email: 'steward@bench.example', name: 'Bench Steward', passwordHash: await hashPassword(password) });
+    await database.db
+      .insert(users)
+      .values({
+        id: owner,
+        email: 'steward@bench.example',
+        name: 'Bench Steward',
+        passwordHash: await hashPassword(password),
+      });
     await database.db.insert(clubs).values({ id: 'bench-club', name: 'Weirbank Bench Club (invented)' });
     await database.db.insert(memberships).values({ clubId: 'bench-club', userId: owner, role: 'steward' });
     const rows = [...lineage('big', 5000, 30, owner, 'bench-club', now)];
-    for (let l = 0; l < 250; l++) rows.push(...lineage(`l${l}`, 20, Math.min(30, 5 + (l % 26)), owner, 'bench-club', now));
+    for (let l = 0; l < 250; l++)
+      rows.push(...lineage(`l${l}`, 20, Math.min(30, 5 + (l % 26)), owner, 'bench-club', now));
     const t0 = performance.now();
     for (let i = 0; i < rows.length; i += 1000) await database.db.insert(cultures).values(rows.slice(i, i + 1000));
     await raw.query('analyze');
     const deepLeaf = 'big-30'; // the end of the initial chain: depth 30, a leaf
-    console.log(`seeded ${rows.length} cultures in ${((performance.now() - t0) / 1000).toFixed(1)} s; lineage from ${deepLeaf}`);
+    console.log(
+      `seeded ${rows.length} cultures in ${((performance.now() - t0) / 1000).toFixed(1)} s; lineage from ${deepLeaf}`,
+    );
 
-    const env = loadEnv({ NODE_ENV: 'test', DATABASE_URL: databaseUrl, APP_URL: 'http://bench.test', LOG_LEVEL: 'silent', AUTH_RATE_LIMIT: '1000' });
+    const env = loadEnv({
+      NODE_ENV: 'test',
+      DATABASE_URL: databaseUrl,
+      APP_URL: 'http://bench.test',
+      LOG_LEVEL: 'silent',
+      AUTH_RATE_LIMIT: '1000',
+    });
     const mailer = { send: async () => {} };
     const { app } = createApp({ env, db: database.db, mailer, logger: createLogger(env) });
     server = app.listen(0, '127.0.0.1');
@@ -160,18 +202,32 @@ async function main() {
       body: JSON.stringify({ email: 'steward@bench.example', password }),
     });
     if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status}`);
-    const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    const cookie = signIn.headers
+      .getSetCookie()
+      .map((c) => c.split(';')[0])
+      .join('; ');
 
     const cases = [
-      { name: 'library list, page 1 of 25 by attention', path: '/api/cultures?sort=attention&page=1&pageSize=25', connections: CONNECTIONS },
+      {
+        name: 'library list, page 1 of 25 by attention',
+        path: '/api/cultures?sort=attention&page=1&pageSize=25',
+        connections: CONNECTIONS,
+      },
       // each answer is ~1 MB of JSON: fewer callers, so the loop measures work rather than a queue
-      { name: 'lineage of 5,000 nodes (from a depth-30 leaf)', path: `/api/cultures/${deepLeaf}/lineage`, connections: 10 },
+      {
+        name: 'lineage of 5,000 nodes (from a depth-30 leaf)',
+        path: `/api/cultures/${deepLeaf}/lineage`,
+        connections: 10,
+      },
     ];
     const results: string[] = [];
     if (process.env.BENCH_SPLIT === '1') {
       const { listCultures } = await import('../src/services/cultures');
       const { CultureListSchema } = await import('@barmkeep/schemas');
-      const ctx = { db: database.db, now: () => new Date() } as unknown as import('../src/services/context').ServiceContext;
+      const ctx = {
+        db: database.db,
+        now: () => new Date(),
+      } as unknown as import('../src/services/context').ServiceContext;
       const q = CultureListSchema.parse({ sort: 'attention', page: 1, pageSize: 25 });
       const time = async (label: string, fn: () => Promise<unknown>, n = 300) => {
         for (let i = 0; i < 30; i++) await fn();
@@ -180,8 +236,14 @@ async function main() {
         console.log(`${label}: ${((performance.now() - t) / n).toFixed(2)} ms per call, sequential`);
       };
       await time('service listCultures (drizzle + presenter)', () => listCultures(ctx, { id: owner }, q));
-      await time('HTTP GET /api/cultures (whole stack)', () => fetch(`${base}/api/cultures?sort=attention&page=1&pageSize=25`, { headers: { cookie } }).then((r) => r.arrayBuffer()));
-      await time('HTTP GET /api/health (stack, no session work)', () => fetch(`${base}/api/health`).then((r) => r.arrayBuffer()));
+      await time('HTTP GET /api/cultures (whole stack)', () =>
+        fetch(`${base}/api/cultures?sort=attention&page=1&pageSize=25`, { headers: { cookie } }).then((r) =>
+          r.arrayBuffer(),
+        ),
+      );
+      await time('HTTP GET /api/health (stack, no session work)', () =>
+        fetch(`${base}/api/health`).then((r) => r.arrayBuffer()),
+      );
     }
     for (const c of cases) {
       // capture exactly what one request sends to PostgreSQL
@@ -226,7 +288,12 @@ async function main() {
     }
     console.log('\n| case | side | p50 ms | p99 ms | mean ms | req/s |\n| --- | --- | --- | --- | --- | --- |');
     console.log(results.join('\n'));
-    console.log(`\n${SECONDS} s per side, pool of ${POOL}; Node ${process.version}; load average ${(await import('node:os')).loadavg().map((l) => l.toFixed(1)).join(' ')}.`);
+    console.log(
+      `\n${SECONDS} s per side, pool of ${POOL}; Node ${process.version}; load average ${(await import('node:os'))
+        .loadavg()
+        .map((l) => l.toFixed(1))
+        .join(' ')}.`,
+    );
   } finally {
     server?.close();
     await raw.end();

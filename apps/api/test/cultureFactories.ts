@@ -20,7 +20,10 @@ export function buildDregs(overrides: Partial<CultureCreateInput> = {}): Culture
   };
 }
 
-export function buildSlurry(parentId: string | undefined, overrides: Partial<CultureCreateInput> = {}): CultureCreateInput {
+export function buildSlurry(
+  parentId: string | undefined,
+  overrides: Partial<CultureCreateInput> = {},
+): CultureCreateInput {
   n += 1;
   return {
     strainName: `Quarry Lager slurry ${n}`,

@@ -58,7 +58,12 @@ let counter = 0;
 export function buildPerson(overrides: Partial<{ email: string; password: string; name: string }> = {}) {
   counter += 1;
   const tag = `${process.pid}-${counter}-${randomBytes(2).toString('hex')}`;
-  return { email: `keeper-${tag}@example.test`, password: 'correct-horse-yeast', name: `Keeper ${counter}`, ...overrides };
+  return {
+    email: `keeper-${tag}@example.test`,
+    password: 'correct-horse-yeast',
+    name: `Keeper ${counter}`,
+    ...overrides,
+  };
 }
 
 export async function signUp(agent: ReturnType<typeof supertest.agent>, person = buildPerson()) {

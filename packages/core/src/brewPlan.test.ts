@@ -96,7 +96,10 @@ describe('computeBrewPlan', () => {
     expect(p.steps[0]!.inoculationCellsPerMl).toBeGreaterThanOrEqual(0.5e6); // §7 rule 3, 0.5 M/mL floor [CP]
     expect(p.steps[0]!.volumeL).toBeLessThanOrEqual(0.25); // 150 M live cells fit at most 300 mL
     expect(p.steps[0]!.sg).toBeCloseTo(1.022, 4); // §7 rule 4
-    expect(p.steps[0]!.lmeGrams).toBeCloseTo(lmeForStarter({ volumeL: p.steps[0]!.volumeL, plato: p.steps[0]!.plato }), 9);
+    expect(p.steps[0]!.lmeGrams).toBeCloseTo(
+      lmeForStarter({ volumeL: p.steps[0]!.volumeL, plato: p.steps[0]!.plato }),
+      9,
+    );
     expect(p.final.low).toBeLessThan(p.final.cells);
     expect(p.final.high).toBeGreaterThan(p.final.cells);
     expect(p.verdict.kind).not.toBe('under');

@@ -182,11 +182,23 @@ export const CultureOriginDetailsSchema = z.discriminatedUnion('origin', [
 ]);
 export type CultureOriginDetailsData = z.output<typeof CultureOriginDetailsSchema>;
 /** Dates become ISO strings once the details are stored as JSON. */
-type Jsonified<T> = { [K in keyof T]: T[K] extends Date ? string : T[K] extends Date | undefined ? string | undefined : T[K] };
-export type CultureOriginDetails = CultureOriginDetailsData extends infer U ? (U extends unknown ? Jsonified<U> : never) : never;
+type Jsonified<T> = {
+  [K in keyof T]: T[K] extends Date ? string : T[K] extends Date | undefined ? string | undefined : T[K];
+};
+export type CultureOriginDetails = CultureOriginDetailsData extends infer U
+  ? U extends unknown
+    ? Jsonified<U>
+    : never
+  : never;
 
 const tagsField = z
-  .array(z.string().trim().min(1, 'Tags cannot be empty').max(cultureLimits.tagMax, `Tags are at most ${cultureLimits.tagMax} characters`))
+  .array(
+    z
+      .string()
+      .trim()
+      .min(1, 'Tags cannot be empty')
+      .max(cultureLimits.tagMax, `Tags are at most ${cultureLimits.tagMax} characters`),
+  )
   .max(cultureLimits.tagsMax, `At most ${cultureLimits.tagsMax} tags`)
   .transform((tags) => [...new Set(tags.map((t) => t.toLowerCase()))]);
 
@@ -200,7 +212,11 @@ const cultureCreateObject = z.object({
   /** only for a culture with no parent; with a parent it is derived */
   generation: countInt('generation', 0, cultureLimits.generationMax).optional(),
   amount: CultureAmountSchema.default({}),
-  locationLabel: z.string().trim().max(cultureLimits.locationMax, `At most ${cultureLimits.locationMax} characters`).default(''),
+  locationLabel: z
+    .string()
+    .trim()
+    .max(cultureLimits.locationMax, `At most ${cultureLimits.locationMax} characters`)
+    .default(''),
   storageTempC: storageTempField,
   madeAt: dateTimeField,
   state: z.enum(['active', 'stored']).default('stored'),
@@ -219,7 +235,10 @@ export function cultureCreateIssues(v: CreateOut, now: Date): { path: string[]; 
     issues.push({ path: ['parentId'], message: 'A re-culture needs the culture it was grown from' });
   }
   if ((o.origin === 'bottle_dregs' || o.origin === 'purchased') && v.parentId) {
-    issues.push({ path: ['parentId'], message: 'Bottle dregs and bought yeast start a new lineage; leave the parent empty' });
+    issues.push({
+      path: ['parentId'],
+      message: 'Bottle dregs and bought yeast start a new lineage; leave the parent empty',
+    });
   }
   if (v.parentId && v.generation !== undefined) {
     issues.push({ path: ['generation'], message: 'The generation comes from the parent; leave it empty' });
@@ -245,7 +264,9 @@ export function cultureCreateIssues(v: CreateOut, now: Date): { path: string[]; 
     if (v.form !== expected) {
       issues.push({
         path: ['form'],
-        message: o.washed ? 'Washed slurry should have the form "washed slurry"' : 'Unwashed slurry should have the form "slurry under beer"',
+        message: o.washed
+          ? 'Washed slurry should have the form "washed slurry"'
+          : 'Unwashed slurry should have the form "slurry under beer"',
       });
     }
   }
@@ -341,7 +362,11 @@ export const CountDataSchema = z
   })
   .superRefine((v, ctx) => {
     if ((v.live === undefined) !== (v.dead === undefined)) {
-      ctx.addIssue({ code: 'custom', path: [v.live === undefined ? 'live' : 'dead'], message: 'Enter both live and dead cells, or neither' });
+      ctx.addIssue({
+        code: 'custom',
+        path: [v.live === undefined ? 'live' : 'dead'],
+        message: 'Enter both live and dead cells, or neither',
+      });
     } else if (v.live !== undefined && v.dead !== undefined && v.live + v.dead === 0) {
       ctx.addIssue({ code: 'custom', path: ['live'], message: 'The stain needs at least one cell' });
     }

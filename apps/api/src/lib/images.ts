@@ -10,9 +10,14 @@ export const notAnImage = () =>
     file: ['This file is not a photo we can read'],
   });
 const tooManyPixels = () =>
-  new AppError(413, 'image_too_large', `This image has more than ${photoLimits.maxInputPixels / 1e6} million pixels; resize it first`, {
-    file: ['The image has too many pixels'],
-  });
+  new AppError(
+    413,
+    'image_too_large',
+    `This image has more than ${photoLimits.maxInputPixels / 1e6} million pixels; resize it first`,
+    {
+      file: ['The image has too many pixels'],
+    },
+  );
 
 export interface ProcessedPhoto {
   web: { data: Buffer; width: number; height: number };

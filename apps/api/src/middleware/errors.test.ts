@@ -18,13 +18,19 @@ function appThrowing(err: unknown) {
 
 describe('error middleware', () => {
   it('turns an unknown error into 500 with a request id and no stack trace', async () => {
-    const res = await supertest(appThrowing(new Error('secret internals at /srv/app.ts:12'))).get('/boom').expect(500);
-    expect(res.body).toEqual({ error: { code: 'internal_error', message: 'Something went wrong on our side', requestId: 'req-123' } });
+    const res = await supertest(appThrowing(new Error('secret internals at /srv/app.ts:12')))
+      .get('/boom')
+      .expect(500);
+    expect(res.body).toEqual({
+      error: { code: 'internal_error', message: 'Something went wrong on our side', requestId: 'req-123' },
+    });
     expect(res.text).not.toContain('secret internals');
   });
 
   it('keeps the status and code of an AppError', async () => {
-    const res = await supertest(appThrowing(notFound('This culture'))).get('/boom').expect(404);
+    const res = await supertest(appThrowing(notFound('This culture')))
+      .get('/boom')
+      .expect(404);
     expect(res.body.error).toEqual({ code: 'not_found', message: 'This culture was not found' });
   });
 

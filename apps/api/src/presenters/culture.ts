@@ -44,7 +44,9 @@ export function cultureWarnings(c: CultureRow): string[] {
     w.push('Pasteurized beer carries dead sediment: this culture is very unlikely to grow.');
   }
   if (c.originDetails.origin === 'bottle_dregs' && c.originDetails.pasteurized === 'unknown') {
-    w.push('If the beer was pasteurized, its sediment is dead; a first feed that shows no activity in a few days is the usual sign.');
+    w.push(
+      'If the beer was pasteurized, its sediment is dead; a first feed that shows no activity in a few days is the usual sign.',
+    );
   }
   if (c.suspect) w.push('Suspected contamination: keep it apart, do not pitch it, and check it before use.');
   return w;
@@ -67,7 +69,8 @@ export function presentCultureDetail(
     visibility: c.visibility,
     ownerClubId: c.ownerClubId,
     stateChangedAt: c.stateChangedAt.toISOString(),
-    stateChangedBy: c.stateChangedBy && extra.stateChangedByName ? { id: c.stateChangedBy, name: extra.stateChangedByName } : null,
+    stateChangedBy:
+      c.stateChangedBy && extra.stateChangedByName ? { id: c.stateChangedBy, name: extra.stateChangedByName } : null,
     suspectFrom:
       c.suspect && extra.suspectFrom && c.suspectSince
         ? { ...extra.suspectFrom, since: c.suspectSince.toISOString() }
@@ -78,7 +81,11 @@ export function presentCultureDetail(
   };
 }
 
-export function presentEvent(e: CultureEventRow, authorName: string | null, supersededBy: string | null): CultureEventDto {
+export function presentEvent(
+  e: CultureEventRow,
+  authorName: string | null,
+  supersededBy: string | null,
+): CultureEventDto {
   return {
     id: e.id,
     cultureId: e.cultureId,
@@ -103,7 +110,19 @@ export type LineageDetail = 'full' | 'path' | 'hidden';
 
 export function presentLineageNode(n: LineageRow, detail: LineageDetail): LineageNodeDto {
   if (detail === 'hidden') {
-    return { id: n.id, parentId: n.parent_id, depth: n.depth, visible: false, openable: false, strainName: null, generation: n.generation, state: null, form: null, suspect: false, owner: null };
+    return {
+      id: n.id,
+      parentId: n.parent_id,
+      depth: n.depth,
+      visible: false,
+      openable: false,
+      strainName: null,
+      generation: n.generation,
+      state: null,
+      form: null,
+      suspect: false,
+      owner: null,
+    };
   }
   return {
     id: n.id,

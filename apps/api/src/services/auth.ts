@@ -44,7 +44,9 @@ export async function requestPasswordReset(ctx: ServiceContext, email: string) {
   const expiresAt = new Date(ctx.now().getTime() + RESET_TOKEN_MINUTES * 60_000);
   await insertResetToken(ctx.db, { tokenHash: sha256(token), userId: user.id, expiresAt });
   const link = `${ctx.appUrl}/reset-password?token=${encodeURIComponent(token)}`;
-  await ctx.mailer.send(passwordResetMail({ to: user.email, name: user.name, link, validMinutes: RESET_TOKEN_MINUTES }));
+  await ctx.mailer.send(
+    passwordResetMail({ to: user.email, name: user.name, link, validMinutes: RESET_TOKEN_MINUTES }),
+  );
 }
 
 /** Sets the new password, ends every session of the account and burns all its reset links. */

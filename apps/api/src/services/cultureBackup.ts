@@ -1,9 +1,4 @@
-import {
-  BACKUP_FORMAT,
-  CultureBackupSchema,
-  type CultureBackup,
-  type CultureOriginDetails,
-} from '@barmkeep/schemas';
+import { BACKUP_FORMAT, CultureBackupSchema, type CultureBackup, type CultureOriginDetails } from '@barmkeep/schemas';
 import type { ZodError } from 'zod';
 import { insertCultures, insertEvents, listAllCultures, listEventsForCultures } from '../db/queries/cultures';
 import type { CultureInsert } from '../db/schema';
@@ -28,13 +23,45 @@ function csvText(value: string | null): string {
 export async function exportLibraryCsv(ctx: ServiceContext, actor: Actor): Promise<string> {
   const now = ctx.now();
   const rows = await listAllCultures(ctx.db, visibleCulturesWhere(actor));
-  const header = ['id', 'strain', 'species', 'tags', 'form', 'origin', 'state', 'generation', 'parent_id', 'location', 'storage_temp_c', 'made_at', 'age_days', 'projected_viability_pct', 'viability_basis', 'days_until_attention', 'suspect'];
+  const header = [
+    'id',
+    'strain',
+    'species',
+    'tags',
+    'form',
+    'origin',
+    'state',
+    'generation',
+    'parent_id',
+    'location',
+    'storage_temp_c',
+    'made_at',
+    'age_days',
+    'projected_viability_pct',
+    'viability_basis',
+    'days_until_attention',
+    'suspect',
+  ];
   const lines = rows.map((r) => {
     const s = presentCultureSummary(r, now);
     return [
-      csvCell(s.id), csvText(s.strainName), csvText(s.species), csvText(s.tags.join(' ')), csvCell(s.form), csvCell(s.origin),
-      csvCell(s.state), csvCell(s.generation), csvCell(s.parentId), csvText(s.locationLabel), csvCell(s.storageTempC), csvCell(s.madeAt),
-      csvCell(s.ageDays), csvCell(Math.round(s.projectedViability * 1000) / 10), csvCell(s.viabilityBasis), csvCell(s.daysUntilAttention), csvCell(s.suspect),
+      csvCell(s.id),
+      csvText(s.strainName),
+      csvText(s.species),
+      csvText(s.tags.join(' ')),
+      csvCell(s.form),
+      csvCell(s.origin),
+      csvCell(s.state),
+      csvCell(s.generation),
+      csvCell(s.parentId),
+      csvText(s.locationLabel),
+      csvCell(s.storageTempC),
+      csvCell(s.madeAt),
+      csvCell(s.ageDays),
+      csvCell(Math.round(s.projectedViability * 1000) / 10),
+      csvCell(s.viabilityBasis),
+      csvCell(s.daysUntilAttention),
+      csvCell(s.suspect),
     ].join(',');
   });
   return [header.join(','), ...lines].join('\r\n') + '\r\n';
@@ -46,7 +73,8 @@ function lineageOrder<T extends { id: string; parentId: string | null }>(rows: T
   const children = new Map<string, T[]>();
   const out: T[] = [];
   for (const r of rows) {
-    if (r.parentId && ids.has(r.parentId)) (children.get(r.parentId) ?? children.set(r.parentId, []).get(r.parentId)!).push(r);
+    if (r.parentId && ids.has(r.parentId))
+      (children.get(r.parentId) ?? children.set(r.parentId, []).get(r.parentId)!).push(r);
     else out.push(r);
   }
   for (let i = 0; i < out.length; i++) out.push(...(children.get(out[i]!.id) ?? []));
@@ -55,7 +83,10 @@ function lineageOrder<T extends { id: string; parentId: string | null }>(rows: T
 
 export async function exportBackup(ctx: ServiceContext, actor: Actor): Promise<CultureBackup> {
   const rows = lineageOrder(await listAllCultures(ctx.db, visibleCulturesWhere(actor)));
-  const events = await listEventsForCultures(ctx.db, rows.map((r) => r.id));
+  const events = await listEventsForCultures(
+    ctx.db,
+    rows.map((r) => r.id),
+  );
   const exported = new Set(rows.map((r) => r.id));
   return {
     format: BACKUP_FORMAT,
@@ -117,7 +148,9 @@ export async function importBackup(ctx: ServiceContext, actor: Actor, file: Buff
   try {
     raw = JSON.parse(file.toString('utf8'));
   } catch {
-    throw badRequest('This file is not valid JSON; nothing was imported', 'invalid_backup', { file: ['Not valid JSON'] });
+    throw badRequest('This file is not valid JSON; nothing was imported', 'invalid_backup', {
+      file: ['Not valid JSON'],
+    });
   }
   const parsed = CultureBackupSchema.safeParse(raw);
   if (!parsed.success) throw validationFailed(rowMessages(parsed.error, raw));
@@ -141,7 +174,11 @@ export async function importBackup(ctx: ServiceContext, actor: Actor, file: Buff
       parentGeneration = generationOf.get(c.parentId);
     }
     // a re-culture without a parent is allowed here: its parent was not the person's to export
-    const generation = deriveGeneration(parentGeneration === undefined ? undefined : { generation: parentGeneration }, c.origin, c.generation);
+    const generation = deriveGeneration(
+      parentGeneration === undefined ? undefined : { generation: parentGeneration },
+      c.origin,
+      c.generation,
+    );
     const id = newId();
     idMap.set(c.id, id);
     generationOf.set(c.id, generation);
@@ -167,7 +204,9 @@ export async function importBackup(ctx: ServiceContext, actor: Actor, file: Buff
       suspectSince: c.suspect ? now : null,
       notes: c.notes,
     };
-    row.attentionDueAt = attentionOf({ form: row.form, storageTempC: row.storageTempC, madeAt: row.madeAt, state: row.state! })?.dueAt ?? null;
+    row.attentionDueAt =
+      attentionOf({ form: row.form, storageTempC: row.storageTempC, madeAt: row.madeAt, state: row.state! })?.dueAt ??
+      null;
     rows.push(row);
   });
   const eventIds = new Map<string, string>();
@@ -186,16 +225,18 @@ export async function importBackup(ctx: ServiceContext, actor: Actor, file: Buff
     }
     const id = newId();
     eventIds.set(e.id, id);
-    return [{
-      id,
-      cultureId,
-      authorUserId: actor.id,
-      kind: e.kind,
-      occurredAt: e.occurredAt,
-      notes: e.notes,
-      data: e.data,
-      supersedesEventId: e.supersedesEventId === null ? null : eventIds.get(e.supersedesEventId)!,
-    }];
+    return [
+      {
+        id,
+        cultureId,
+        authorUserId: actor.id,
+        kind: e.kind,
+        occurredAt: e.occurredAt,
+        notes: e.notes,
+        data: e.data,
+        supersedesEventId: e.supersedesEventId === null ? null : eventIds.get(e.supersedesEventId)!,
+      },
+    ];
   });
   if (Object.keys(fields).length) throw validationFailed(fields);
 

@@ -53,7 +53,9 @@ function estimateInput(c: CultureRow, at: Date): { input: EstimateCellsInput } |
     case 'liquid_pack':
       return { input: { form: c.form, packs: a.packs ?? 1, packSize: a.packSize ?? 'standard', ...dated } };
     case 'dry_pack':
-      return a.grams ? { input: { form: c.form, grams: a.grams, ...dated } } : { missing: 'Add the weight in grams to estimate the cells.' };
+      return a.grams
+        ? { input: { form: c.form, grams: a.grams, ...dated } }
+        : { missing: 'Add the weight in grams to estimate the cells.' };
     case 'slurry_washed':
     case 'slurry_unwashed':
       return a.volumeMl
@@ -107,7 +109,14 @@ export function healthOf(c: CultureRow, now: Date, latestCount?: CultureEventRow
       const est = estimateCells(e.input);
       // the estimate's own viability is the model's; a measured stain overrides it
       const viability = p.basis === 'measured' ? p.viability : est.viability;
-      cells = { kind: 'estimate', total: est.cells, low: est.low, high: est.high, viable: est.cells * viability, basis: est.basis };
+      cells = {
+        kind: 'estimate',
+        total: est.cells,
+        low: est.low,
+        high: est.high,
+        viable: est.cells * viability,
+        basis: est.basis,
+      };
     }
   }
   const advice = generationAdvice(c.generation);
@@ -125,7 +134,13 @@ export function healthOf(c: CultureRow, now: Date, latestCount?: CultureEventRow
         : null,
     cells,
     cellsMissing,
-    storage: { days: limit.days, action: limit.action, source: limit.source, dueAt: dueAt.toISOString(), daysLeft: daysUntil(dueAt, now) },
+    storage: {
+      days: limit.days,
+      action: limit.action,
+      source: limit.source,
+      dueAt: dueAt.toISOString(),
+      daysLeft: daysUntil(dueAt, now),
+    },
     generationAdvice: { level: advice.level, message: advice.message },
   };
 }

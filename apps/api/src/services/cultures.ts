@@ -50,12 +50,7 @@ import {
 import { attentionOf, healthOf, projectedViabilityOf, viabilitySeries } from './cultureHealth';
 import { deriveGeneration, PARENT_REQUIRED_ORIGINS, ROOT_ONLY_ORIGINS } from './cultureLineage';
 import { alertLineage } from './lineageAlerts';
-import {
-  presentCultureDetail,
-  presentCultureSummary,
-  presentEvent,
-  presentLineageNode,
-} from '../presenters/culture';
+import { presentCultureDetail, presentCultureSummary, presentEvent, presentLineageNode } from '../presenters/culture';
 import type { ServiceContext } from './context';
 
 const MS_PER_DAY = 86_400_000;
@@ -70,7 +65,8 @@ function storedOrigin(o: CultureOriginDetailsData): CultureOriginDetails {
 }
 
 function assertNotFuture(at: Date, now: Date, field: string) {
-  if (at.getTime() > now.getTime() + FUTURE_SKEW_MS) throw validationFailed({ [field]: ['This date is in the future'] });
+  if (at.getTime() > now.getTime() + FUTURE_SKEW_MS)
+    throw validationFailed({ [field]: ['This date is in the future'] });
 }
 
 function isPgError(err: unknown, code: string, constraint?: string): boolean {
@@ -188,7 +184,14 @@ export async function listCultures(ctx: ServiceContext, actor: Actor, q: Culture
     const sign = q.dir === 'asc' ? 1 : -1;
     projected.sort((a, b) => sign * (a.v - b.v) || (a.id < b.id ? -1 : 1));
     const page = projected.slice(offset, offset + q.pageSize);
-    const rows = new Map((await findCulturesByIds(ctx.db, page.map((p) => p.id))).map((r) => [r.id, r]));
+    const rows = new Map(
+      (
+        await findCulturesByIds(
+          ctx.db,
+          page.map((p) => p.id),
+        )
+      ).map((r) => [r.id, r]),
+    );
     return {
       cultures: page.map((p) => presentCultureSummary(rows.get(p.id)!, now, p.v)),
       page: q.page,
@@ -258,7 +261,10 @@ export async function getCultureHealthSeries(ctx: ServiceContext, actor: Actor, 
   const now = ctx.now();
   const counts = await effectiveCounts(ctx.db, id);
   const measured = counts
-    .map((e) => ({ at: e.occurredAt.toISOString(), result: e.data.result as { viability?: number; viabilityCi95?: [number, number] } }))
+    .map((e) => ({
+      at: e.occurredAt.toISOString(),
+      result: e.data.result as { viability?: number; viabilityCi95?: [number, number] },
+    }))
     .filter((m) => typeof m.result?.viability === 'number')
     .map((m) => ({ at: m.at, viability: m.result.viability!, ci95: m.result.viabilityCi95 ?? null }))
     .reverse();
@@ -315,7 +321,9 @@ async function reparent(tx: Tx, ctx: ServiceContext, actor: Actor, row: CultureR
     }
   } else {
     if (ROOT_ONLY_ORIGINS.includes(row.origin)) {
-      throw validationFailed({ 'body.parentId': ['Bottle dregs and bought yeast start a new lineage; they have no parent'] });
+      throw validationFailed({
+        'body.parentId': ['Bottle dregs and bought yeast start a new lineage; they have no parent'],
+      });
     }
     if (parentId === row.id) throw validationFailed({ 'body.parentId': [CYCLE_MESSAGE] });
     const parent = assertUsableParent(actor, await findCultureById(tx, parentId));
@@ -350,7 +358,10 @@ function countResult(data: Extract<CultureEventCreateData, { kind: 'counted' }>[
     dilution: data.dilution,
     squareVolumeMl: SQUARE_VOLUME_ML[data.squareSize],
   });
-  const stain = data.live !== undefined && data.dead !== undefined ? viabilityFromStain({ live: data.live, dead: data.dead }) : undefined;
+  const stain =
+    data.live !== undefined && data.dead !== undefined
+      ? viabilityFromStain({ live: data.live, dead: data.dead })
+      : undefined;
   return {
     cellsPerMl: count.cellsPerMl,
     ci95: count.ci95,
@@ -381,7 +392,10 @@ export async function addCultureEvent(ctx: ServiceContext, actor: Actor, id: str
         throw validationFailed({ 'body.occurredAt': ['This is before the culture was made'] });
       }
       if (!IN_USE_STATES.includes(row.state) && NO_LONGER_KEPT_KINDS.has(input.kind) && !input.supersedesEventId) {
-        throw conflict('culture_not_kept', `This culture is ${row.state.replace('_', ' ')}; it can no longer be ${input.kind === 'fed' ? 'fed' : 'handled'}`);
+        throw conflict(
+          'culture_not_kept',
+          `This culture is ${row.state.replace('_', ' ')}; it can no longer be ${input.kind === 'fed' ? 'fed' : 'handled'}`,
+        );
       }
       if (input.supersedesEventId) {
         const old = await findEventById(tx, input.supersedesEventId);
@@ -394,7 +408,9 @@ export async function addCultureEvent(ctx: ServiceContext, actor: Actor, id: str
           });
         }
         if (old.kind !== input.kind) {
-          throw validationFailed({ 'body.kind': [`A correction must be of the same kind as the entry it replaces (${old.kind})`] });
+          throw validationFailed({
+            'body.kind': [`A correction must be of the same kind as the entry it replaces (${old.kind})`],
+          });
         }
         if (await isEventSuperseded(tx, old.id)) {
           throw conflict('already_corrected', 'This entry was already corrected; correct the latest version instead');
@@ -457,7 +473,12 @@ async function applyEventEffects(
     }
     case 'pitched':
       if (input.data.usedUp) {
-        await updateCultureRow(tx, row.id, { state: 'pitched', stateChangedAt: now, stateChangedBy: actor.id, attentionDueAt: null });
+        await updateCultureRow(tx, row.id, {
+          state: 'pitched',
+          stateChangedAt: now,
+          stateChangedBy: actor.id,
+          attentionDueAt: null,
+        });
       }
       break;
     case 'contamination_suspected':
@@ -516,7 +537,10 @@ export async function splitCulture(
   return ctx.db.transaction(async (tx) => {
     const parent = assertCanEdit(actor, await findCultureForUpdate(tx, id));
     if (!IN_USE_STATES.includes(parent.state)) {
-      throw conflict('culture_not_kept', `This culture is ${parent.state.replace('_', ' ')}; there is nothing left to split`);
+      throw conflict(
+        'culture_not_kept',
+        `This culture is ${parent.state.replace('_', ' ')}; there is nothing left to split`,
+      );
     }
     const children: CultureInsert[] = [];
     for (let i = 0; i < input.count; i++) {
@@ -552,7 +576,12 @@ export async function splitCulture(
       children.push(child);
     }
     const rows = await insertCultures(tx, children);
-    await updateCultureRow(tx, parent.id, { state: 'used_up', stateChangedAt: now, stateChangedBy: actor.id, attentionDueAt: null });
+    await updateCultureRow(tx, parent.id, {
+      state: 'used_up',
+      stateChangedAt: now,
+      stateChangedBy: actor.id,
+      attentionDueAt: null,
+    });
     await insertEvents(tx, [
       {
         id: newId(),
@@ -617,7 +646,9 @@ export async function quarantineCulture(
     const wrong = requested.filter((r) => !allowed.has(r));
     if (wrong.length) {
       throw validationFailed({
-        'body.flagDescendantIds': [`Not a descendant still in use: ${wrong.slice(0, 5).join(', ')}${wrong.length > 5 ? '…' : ''}`],
+        'body.flagDescendantIds': [
+          `Not a descendant still in use: ${wrong.slice(0, 5).join(', ')}${wrong.length > 5 ? '…' : ''}`,
+        ],
       });
     }
     const eventId = newId();

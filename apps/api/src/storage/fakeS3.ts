@@ -52,7 +52,8 @@ export async function startFakeS3(options: { buckets: string[]; port?: number })
         case 'GET':
         case 'HEAD': {
           const o = objects.get(id);
-          if (!o) return send(404, req.method === 'HEAD' ? '' : xmlError('NoSuchKey', 'The specified key does not exist.'));
+          if (!o)
+            return send(404, req.method === 'HEAD' ? '' : xmlError('NoSuchKey', 'The specified key does not exist.'));
           res.writeHead(200, { 'content-type': o.contentType, 'content-length': String(o.body.length) });
           return res.end(req.method === 'HEAD' ? undefined : o.body);
         }

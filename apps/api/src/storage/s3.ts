@@ -29,7 +29,9 @@ export function s3Storage(o: S3Options): ObjectStorage & { client: S3Client } {
     driver: 's3',
     client,
     async put(key, body, contentType) {
-      await client.send(new PutObjectCommand({ Bucket: o.bucket, Key: Key(key), Body: body, ContentType: contentType }));
+      await client.send(
+        new PutObjectCommand({ Bucket: o.bucket, Key: Key(key), Body: body, ContentType: contentType }),
+      );
     },
     async get(key) {
       try {

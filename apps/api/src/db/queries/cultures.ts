@@ -90,7 +90,10 @@ const SQL_SORTS: Record<Exclude<CultureSort, 'viability'>, (dir: 'asc' | 'desc')
     d === 'asc' ? sql`${cultures.attentionDueAt} asc nulls last` : sql`${cultures.attentionDueAt} desc nulls last`,
     asc(cultures.id),
   ],
-  name: (d) => [d === 'asc' ? sql`lower(${cultures.strainName}) asc` : sql`lower(${cultures.strainName}) desc`, asc(cultures.id)],
+  name: (d) => [
+    d === 'asc' ? sql`lower(${cultures.strainName}) asc` : sql`lower(${cultures.strainName}) desc`,
+    asc(cultures.id),
+  ],
   made: (d) => [d === 'asc' ? asc(cultures.madeAt) : desc(cultures.madeAt), asc(cultures.id)],
   generation: (d) => [d === 'asc' ? asc(cultures.generation) : desc(cultures.generation), asc(cultures.id)],
   state: (d) => [d === 'asc' ? asc(cultures.state) : desc(cultures.state), asc(cultures.id)],
@@ -139,7 +142,10 @@ export async function listCulturesPage(
     .offset(page.offset);
   // a short first page is the whole answer; no need to count
   if (page.offset === 0 && rows.length < page.limit) return { rows, total: rows.length };
-  const [c] = await db.select({ n: sql<number>`count(*)`.mapWith(Number) }).from(cultures).where(where);
+  const [c] = await db
+    .select({ n: sql<number>`count(*)`.mapWith(Number) })
+    .from(cultures)
+    .where(where);
   return { rows, total: c?.n ?? 0 };
 }
 
@@ -257,7 +263,12 @@ export async function markSuspect(
   if (ids.length === 0) return;
   await db
     .update(cultures)
-    .set({ suspect: true, suspectFromCultureId: values.fromCultureId, suspectSince: values.since, updatedAt: new Date() })
+    .set({
+      suspect: true,
+      suspectFromCultureId: values.fromCultureId,
+      suspectSince: values.since,
+      updatedAt: new Date(),
+    })
     .where(inArray(cultures.id, ids));
 }
 
@@ -291,7 +302,9 @@ export async function listEventsOfCulture(db: Executor, cultureId: string) {
     .select({
       event: cultureEvents,
       authorName: users.name,
-      supersededBy: sql<string | null>`(select ${later}.id from culture_events ${later} where ${later}.supersedes_event_id = ${cultureEvents.id} limit 1)`,
+      supersededBy: sql<
+        string | null
+      >`(select ${later}.id from culture_events ${later} where ${later}.supersedes_event_id = ${cultureEvents.id} limit 1)`,
     })
     .from(cultureEvents)
     .leftJoin(users, eq(users.id, cultureEvents.authorUserId))
@@ -330,7 +343,6 @@ export async function findUserNames(db: Executor, ids: string[]): Promise<Map<st
   return new Map(rows.map((r) => [r.id, r.name]));
 }
 
-
 // ---------------------------------------------------------------- photos
 
 export async function insertPhoto(db: Executor, values: typeof culturePhotos.$inferInsert): Promise<CulturePhotoRow> {
@@ -346,7 +358,11 @@ export async function listPhotosOfCulture(db: Executor, cultureId: string): Prom
     .orderBy(desc(culturePhotos.createdAt), desc(culturePhotos.id));
 }
 
-export async function findPhoto(db: Executor, cultureId: string, photoId: string): Promise<CulturePhotoRow | undefined> {
+export async function findPhoto(
+  db: Executor,
+  cultureId: string,
+  photoId: string,
+): Promise<CulturePhotoRow | undefined> {
   const [row] = await db
     .select()
     .from(culturePhotos)

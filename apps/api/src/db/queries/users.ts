@@ -24,7 +24,9 @@ export async function insertUser(
 export async function updateUser(
   db: Db,
   id: string,
-  values: Partial<Pick<UserRow, 'name' | 'unitSystem' | 'temperatureUnit' | 'gravityUnit' | 'timeZone' | 'passwordHash'>>,
+  values: Partial<
+    Pick<UserRow, 'name' | 'unitSystem' | 'temperatureUnit' | 'gravityUnit' | 'timeZone' | 'passwordHash'>
+  >,
 ): Promise<UserRow | undefined> {
   const [row] = await db
     .update(users)

@@ -50,7 +50,10 @@ export const cultures = pgTable(
     generation: integer('generation').notNull().default(0),
     strainName: text('strain_name').notNull(),
     species: text('species'),
-    tags: text('tags').array().notNull().default(sql`'{}'::text[]`),
+    tags: text('tags')
+      .array()
+      .notNull()
+      .default(sql`'{}'::text[]`),
     origin: cultureOrigin('origin').notNull(),
     originDetails: jsonb('origin_details').$type<CultureOriginDetails>().notNull(),
     form: cultureForm('form').notNull(),

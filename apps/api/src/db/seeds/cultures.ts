@@ -11,7 +11,9 @@ export async function seedDemoCultures(db: Db, now = new Date()): Promise<void> 
   const ago = (d: number) => new Date(now.getTime() - d * day);
   const base = (c: Omit<CultureInsert, 'stateChangedAt' | 'stateChangedBy'>): CultureInsert => {
     const row = { ...c, stateChangedAt: c.madeAt, stateChangedBy: c.ownerUserId } as CultureInsert;
-    row.attentionDueAt = attentionOf({ form: row.form, storageTempC: row.storageTempC, madeAt: row.madeAt, state: row.state ?? 'stored' })?.dueAt ?? null;
+    row.attentionDueAt =
+      attentionOf({ form: row.form, storageTempC: row.storageTempC, madeAt: row.madeAt, state: row.state ?? 'stored' })
+        ?.dueAt ?? null;
     return row;
   };
   const rows: CultureInsert[] = [
@@ -53,7 +55,12 @@ export async function seedDemoCultures(db: Db, now = new Date()): Promise<void> 
       species: 'Saccharomyces cerevisiae',
       tags: ['ale', 'clean'],
       origin: 'purchased',
-      originDetails: { origin: 'purchased', maker: 'Nettlebed Yeastworks (invented)', lot: 'NB-2214', manufacturedOn: ago(40).toISOString() },
+      originDetails: {
+        origin: 'purchased',
+        maker: 'Nettlebed Yeastworks (invented)',
+        lot: 'NB-2214',
+        manufacturedOn: ago(40).toISOString(),
+      },
       form: 'liquid_pack',
       amount: { packs: 1, packSize: 'standard' },
       locationLabel: 'Club fridge, top shelf',

@@ -64,7 +64,11 @@ describe('sign-up, sign-in and sign-out', () => {
   });
 
   it('rejects a weak password and reports every bad field at once', async () => {
-    const res = await t.agent().post('/api/auth/sign-up').send({ email: 'nope', password: 'short', name: '' }).expect(400);
+    const res = await t
+      .agent()
+      .post('/api/auth/sign-up')
+      .send({ email: 'nope', password: 'short', name: '' })
+      .expect(400);
     expect(res.body.error.code).toBe('validation_failed');
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['body.email', 'body.name', 'body.password']);
     expect(res.body.error.fields['body.password'][0]).toMatch(/at least 10/);
@@ -72,7 +76,11 @@ describe('sign-up, sign-in and sign-out', () => {
 
   it('gives the same answer for a wrong password and an unknown e-mail', async () => {
     const { person } = await signUp(t.agent());
-    const wrong = await t.agent().post('/api/auth/sign-in').send({ email: person.email, password: 'not-the-password' }).expect(401);
+    const wrong = await t
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: person.email, password: 'not-the-password' })
+      .expect(401);
     const unknown = await t
       .agent()
       .post('/api/auth/sign-in')
@@ -87,7 +95,10 @@ describe('sign-up, sign-in and sign-out', () => {
     const { person } = await signUp(agent);
     const before = await agent.get('/api/auth/me').expect(200);
     const oldCookie = (before.request as unknown as { cookies?: string }).cookies;
-    const signIn = await agent.post('/api/auth/sign-in').send({ email: person.email, password: person.password }).expect(200);
+    const signIn = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: person.email, password: person.password })
+      .expect(200);
     const newCookie = cookieOf(signIn).split(';')[0];
     expect(newCookie).toBeTruthy();
     expect(newCookie).not.toBe(oldCookie);
@@ -100,7 +111,10 @@ describe('sign-up, sign-in and sign-out', () => {
   it('expires sessions: a session past its expiry is refused and cleared', async () => {
     const agent = t.agent();
     const { user } = await signUp(agent);
-    await t.database.db.update(sessions).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(sessions.userId, user.id));
+    await t.database.db
+      .update(sessions)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .where(eq(sessions.userId, user.id));
     const res = await agent.get('/api/auth/me').expect(401);
     expect(cookieOf(res)).toMatch(/Max-Age=0/);
   });
@@ -136,7 +150,11 @@ describe('password reset through the fake SMTP inbox', () => {
     await signedIn.get('/api/auth/me').expect(401);
     await t.agent().post('/api/auth/sign-in').send({ email: person.email, password: person.password }).expect(401);
     await t.agent().post('/api/auth/sign-in').send({ email: person.email, password: newPassword }).expect(200);
-    const again = await t.agent().post('/api/auth/password-reset/confirm').send({ token, password: 'yet-another-password' }).expect(400);
+    const again = await t
+      .agent()
+      .post('/api/auth/password-reset/confirm')
+      .send({ token, password: 'yet-another-password' })
+      .expect(400);
     expect(again.body.error.code).toBe('invalid_token');
   });
 
@@ -148,7 +166,11 @@ describe('password reset through the fake SMTP inbox', () => {
     const token = new URL(/(http\S+)/.exec(mail.text)![1]!).searchParams.get('token')!;
     t.clock.now = new Date(Date.now() + 31 * 60_000);
     try {
-      const res = await t.agent().post('/api/auth/password-reset/confirm').send({ token, password: 'another-long-password' }).expect(400);
+      const res = await t
+        .agent()
+        .post('/api/auth/password-reset/confirm')
+        .send({ token, password: 'another-long-password' })
+        .expect(400);
       expect(res.body.error.code).toBe('invalid_token');
     } finally {
       t.clock.now = new Date();
@@ -185,7 +207,11 @@ describe('guards', () => {
   it('refuses a state-changing request without our Origin (CSRF) and changes nothing', async () => {
     const agent = t.agent();
     const { user } = await signUp(agent);
-    const cross = await agent.patch('/api/account').set('Origin', 'https://evil.example').send({ name: 'Hijacked' }).expect(403);
+    const cross = await agent
+      .patch('/api/account')
+      .set('Origin', 'https://evil.example')
+      .send({ name: 'Hijacked' })
+      .expect(403);
     expect(cross.body.error.code).toBe('forbidden');
     const [row] = await t.database.db.select().from(users).where(eq(users.id, user.id));
     expect(row!.name).not.toBe('Hijacked');
@@ -193,7 +219,9 @@ describe('guards', () => {
 
   it('refuses a POST with no Origin or Referer at all', async () => {
     const { default: supertest } = await import('supertest');
-    const res = await supertest(t.app).post('/api/auth/sign-in').send({ email: 'a@example.test', password: 'whatever-long' });
+    const res = await supertest(t.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'a@example.test', password: 'whatever-long' });
     expect(res.status).toBe(403);
     const viaReferer = await supertest(t.app)
       .post('/api/auth/sign-in')
@@ -203,7 +231,12 @@ describe('guards', () => {
   });
 
   it('answers malformed JSON with 400 and an unknown API route with 404, both as JSON', async () => {
-    const bad = await t.agent().post('/api/auth/sign-in').set('Content-Type', 'application/json').send('{"email":').expect(400);
+    const bad = await t
+      .agent()
+      .post('/api/auth/sign-in')
+      .set('Content-Type', 'application/json')
+      .send('{"email":')
+      .expect(400);
     expect(bad.body.error.code).toBe('malformed_json');
     const missing = await t.agent().get('/api/nothing-here').expect(404);
     expect(missing.body.error.code).toBe('not_found');
@@ -216,10 +249,25 @@ describe('account', () => {
     await signUp(agent);
     const res = await agent
       .patch('/api/account')
-      .send({ name: 'Renamed Keeper', unitSystem: 'us', temperatureUnit: 'F', gravityUnit: 'plato', timeZone: 'America/Chicago' })
+      .send({
+        name: 'Renamed Keeper',
+        unitSystem: 'us',
+        temperatureUnit: 'F',
+        gravityUnit: 'plato',
+        timeZone: 'America/Chicago',
+      })
       .expect(200);
-    expect(res.body.user).toMatchObject({ name: 'Renamed Keeper', unitSystem: 'us', temperatureUnit: 'F', gravityUnit: 'plato', timeZone: 'America/Chicago' });
-    const bad = await agent.patch('/api/account').send({ unitSystem: 'imperial', timeZone: 'Mars/Olympus' }).expect(400);
+    expect(res.body.user).toMatchObject({
+      name: 'Renamed Keeper',
+      unitSystem: 'us',
+      temperatureUnit: 'F',
+      gravityUnit: 'plato',
+      timeZone: 'America/Chicago',
+    });
+    const bad = await agent
+      .patch('/api/account')
+      .send({ unitSystem: 'imperial', timeZone: 'Mars/Olympus' })
+      .expect(400);
     expect(Object.keys(bad.body.error.fields).sort()).toEqual(['body.timeZone', 'body.unitSystem']);
     const me = await agent.get('/api/auth/me').expect(200);
     expect(me.body.user.unitSystem).toBe('us');

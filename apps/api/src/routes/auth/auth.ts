@@ -45,26 +45,16 @@ export function authRouter(ctx: ServiceContext, options: { rateLimitMax: number 
     res.json({ user: presentUser(user) });
   });
 
-  router.post(
-    '/password-reset/request',
-    limiter,
-    validate({ body: PasswordResetRequestSchema }),
-    async (req, res) => {
-      await auth.requestPasswordReset(ctx, req.body.email);
-      res.status(202).json({ ok: true });
-    },
-  );
+  router.post('/password-reset/request', limiter, validate({ body: PasswordResetRequestSchema }), async (req, res) => {
+    await auth.requestPasswordReset(ctx, req.body.email);
+    res.status(202).json({ ok: true });
+  });
 
-  router.post(
-    '/password-reset/confirm',
-    limiter,
-    validate({ body: PasswordResetConfirmSchema }),
-    async (req, res) => {
-      await auth.confirmPasswordReset(ctx, req.body);
-      res.append('Set-Cookie', ctx.lucia.createBlankSessionCookie().serialize());
-      res.status(204).end();
-    },
-  );
+  router.post('/password-reset/confirm', limiter, validate({ body: PasswordResetConfirmSchema }), async (req, res) => {
+    await auth.confirmPasswordReset(ctx, req.body);
+    res.append('Set-Cookie', ctx.lucia.createBlankSessionCookie().serialize());
+    res.status(204).end();
+  });
 
   return router;
 }

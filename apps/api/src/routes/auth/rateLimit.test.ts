@@ -9,7 +9,8 @@ afterAll(() => t.close());
 
 it('rate limits sign-in attempts with 429 and a JSON body', async () => {
   const agent = t.agent();
-  const attempt = () => agent.post('/api/auth/sign-in').send({ email: 'guess@example.test', password: 'guessing-password' });
+  const attempt = () =>
+    agent.post('/api/auth/sign-in').send({ email: 'guess@example.test', password: 'guessing-password' });
   for (let i = 0; i < 3; i++) expect((await attempt()).status).toBe(401);
   const limited = await attempt();
   expect(limited.status).toBe(429);

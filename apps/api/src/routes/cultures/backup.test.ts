@@ -13,21 +13,50 @@ afterAll(async () => {
 async function keeperWithLineage() {
   const agent = t.agent();
   await signUp(agent);
-  const root = (await agent.post('/api/cultures').send(buildDregs({ strainName: '=HYPERLINK("http://x.test")' })).expect(201)).body.culture;
-  const child = (await agent.post('/api/cultures').send(buildSlurry(root.id, { origin: { origin: 'batch_slurry', batchName: 'Batch 3, "Pale"', crop: 'bottom', washed: false } })).expect(201)).body.culture;
+  const root = (
+    await agent
+      .post('/api/cultures')
+      .send(buildDregs({ strainName: '=HYPERLINK("http://x.test")' }))
+      .expect(201)
+  ).body.culture;
+  const child = (
+    await agent
+      .post('/api/cultures')
+      .send(
+        buildSlurry(root.id, {
+          origin: { origin: 'batch_slurry', batchName: 'Batch 3, "Pale"', crop: 'bottom', washed: false },
+        }),
+      )
+      .expect(201)
+  ).body.culture;
   const grand = (await agent.post('/api/cultures').send(buildReculture(child.id)).expect(201)).body.culture;
-  const count = (await agent.post(`/api/cultures/${child.id}/events`).send({ kind: 'counted', data: { cellsCounted: 300, squaresCounted: 5, dilution: 100, live: 80, dead: 20 } }).expect(201)).body.event;
-  await agent.post(`/api/cultures/${child.id}/events`).send({ kind: 'counted', supersedesEventId: count.id, data: { cellsCounted: 300, squaresCounted: 5, dilution: 100, live: 70, dead: 30 } }).expect(201);
+  const count = (
+    await agent
+      .post(`/api/cultures/${child.id}/events`)
+      .send({ kind: 'counted', data: { cellsCounted: 300, squaresCounted: 5, dilution: 100, live: 80, dead: 20 } })
+      .expect(201)
+  ).body.event;
+  await agent
+    .post(`/api/cultures/${child.id}/events`)
+    .send({
+      kind: 'counted',
+      supersedesEventId: count.id,
+      data: { cellsCounted: 300, squaresCounted: 5, dilution: 100, live: 70, dead: 30 },
+    })
+    .expect(201);
   return { agent, root, child, grand };
 }
 
 const download = (agent: ReturnType<TestApp['agent']>, path: string) =>
-  agent.get(path).buffer(true).parse((r, cb) => {
-    let s = '';
-    r.setEncoding('utf8');
-    r.on('data', (c: string) => (s += c));
-    r.on('end', () => cb(null, s));
-  });
+  agent
+    .get(path)
+    .buffer(true)
+    .parse((r, cb) => {
+      let s = '';
+      r.setEncoding('utf8');
+      r.on('data', (c: string) => (s += c));
+      r.on('end', () => cb(null, s));
+    });
 
 describe('export', () => {
   it('gives a CSV of the library, one row per culture, safe to open in a spreadsheet', async () => {
@@ -57,7 +86,10 @@ describe('backup and import', () => {
     expect(backup.cultures).toHaveLength(3);
     const other = t.agent();
     await signUp(other);
-    const res = await other.post('/api/cultures/backup').attach('file', Buffer.from(JSON.stringify(backup)), 'backup.json').expect(201);
+    const res = await other
+      .post('/api/cultures/backup')
+      .attach('file', Buffer.from(JSON.stringify(backup)), 'backup.json')
+      .expect(201);
     expect(res.body.imported).toEqual({ cultures: 3, events: backup.events.length });
     const list = (await other.get('/api/cultures?sort=generation').expect(200)).body.cultures;
     expect(list.map((c: { generation: number }) => c.generation)).toEqual([0, 1, 1]);
@@ -81,7 +113,10 @@ describe('backup and import', () => {
     expect(at(younger.id)).toBeLessThan(at(older.id));
     const other = t.agent();
     await signUp(other);
-    await other.post('/api/cultures/backup').attach('file', Buffer.from(JSON.stringify(backup)), 'b.json').expect(201);
+    await other
+      .post('/api/cultures/backup')
+      .attach('file', Buffer.from(JSON.stringify(backup)), 'b.json')
+      .expect(201);
   });
 
   it('a bad file changes nothing and says which row is wrong', async () => {
@@ -89,7 +124,10 @@ describe('backup and import', () => {
     const backup = JSON.parse((await download(agent, '/api/cultures/backup.json').expect(200)).body as string);
     const other = t.agent();
     await signUp(other);
-    const send = (body: unknown) => other.post('/api/cultures/backup').attach('file', Buffer.from(typeof body === 'string' ? body : JSON.stringify(body)), 'b.json');
+    const send = (body: unknown) =>
+      other
+        .post('/api/cultures/backup')
+        .attach('file', Buffer.from(typeof body === 'string' ? body : JSON.stringify(body)), 'b.json');
 
     const badForm = structuredClone(backup);
     badForm.cultures[1].form = 'jam jar';
@@ -99,7 +137,9 @@ describe('backup and import', () => {
     const childFirst = structuredClone(backup);
     childFirst.cultures.reverse();
     const r2 = await send(childFirst).expect(400);
-    expect(r2.body.error.fields[`cultures[0] (id ${childFirst.cultures[0].id})`][0]).toMatch(/parent must appear earlier/);
+    expect(r2.body.error.fields[`cultures[0] (id ${childFirst.cultures[0].id})`][0]).toMatch(
+      /parent must appear earlier/,
+    );
 
     const orphanEvent = structuredClone(backup);
     orphanEvent.events[0].cultureId = 'nowhere';

@@ -30,12 +30,27 @@ async function total(agent: Agent) {
 describe('POST /api/cultures', () => {
   it('adds a bottle-dregs culture with its origin, a log entry and core-projected health', async () => {
     const { agent, user } = await keeper();
-    const input = buildDregs({ origin: { origin: 'bottle_dregs', beerName: 'Hollow Oak Saison', bottleCount: 3, pasteurized: 'unknown' } });
+    const input = buildDregs({
+      origin: { origin: 'bottle_dregs', beerName: 'Hollow Oak Saison', bottleCount: 3, pasteurized: 'unknown' },
+    });
     const res = await agent.post('/api/cultures').send(input).expect(201);
     const c = res.body.culture;
-    expect(c).toMatchObject({ strainName: input.strainName, form: 'bottle_dregs', origin: 'bottle_dregs', generation: 0, state: 'stored', parentId: null, ownerUserId: user.id });
+    expect(c).toMatchObject({
+      strainName: input.strainName,
+      form: 'bottle_dregs',
+      origin: 'bottle_dregs',
+      generation: 0,
+      state: 'stored',
+      parentId: null,
+      ownerUserId: user.id,
+    });
     expect(c.originDetails).toMatchObject({ beerName: 'Hollow Oak Saison', bottleCount: 3, pasteurized: 'unknown' });
-    const expected = projectViability({ form: 'bottle_dregs', madeOrHarvestedAt: new Date(input.madeAt as string), at: new Date(c.health.at), storageTempC: 4 });
+    const expected = projectViability({
+      form: 'bottle_dregs',
+      madeOrHarvestedAt: new Date(input.madeAt as string),
+      at: new Date(c.health.at),
+      storageTempC: 4,
+    });
     expect(c.health.viability).toBeCloseTo(expected.viability, 10);
     expect(c.health.viabilityBasis).toBe('model');
     expect(c.health.cells.kind).toBe('estimate');
@@ -48,7 +63,12 @@ describe('POST /api/cultures', () => {
 
   it('warns that pasteurized sediment is dead', async () => {
     const { agent } = await keeper();
-    const c = await create(agent, buildDregs({ origin: { origin: 'bottle_dregs', beerName: 'Tin Roof Dubbel', bottleCount: 1, pasteurized: 'yes' } }));
+    const c = await create(
+      agent,
+      buildDregs({
+        origin: { origin: 'bottle_dregs', beerName: 'Tin Roof Dubbel', bottleCount: 1, pasteurized: 'yes' },
+      }),
+    );
     expect((c.warnings as string[])[0]).toMatch(/dead sediment/);
   });
 
@@ -60,11 +80,19 @@ describe('POST /api/cultures', () => {
         {
           ...buildDregs(),
           form: 'liquid_pack',
-          origin: { origin: 'purchased', maker: 'Made-up Yeast Co.', manufacturedOn: '2025-03-10', bestBy: '2025-01-01' },
+          origin: {
+            origin: 'purchased',
+            maker: 'Made-up Yeast Co.',
+            manufacturedOn: '2025-03-10',
+            bestBy: '2025-01-01',
+          },
         },
         'body.origin.bestBy',
       ],
-      [buildDregs({ origin: { origin: 'bottle_dregs', beerName: 'X', bottleCount: -2, pasteurized: 'no' } }), 'body.origin.bottleCount'],
+      [
+        buildDregs({ origin: { origin: 'bottle_dregs', beerName: 'X', bottleCount: -2, pasteurized: 'no' } }),
+        'body.origin.bottleCount',
+      ],
       [buildDregs({ amount: { volumeMl: -5 } }), 'body.amount.volumeMl'],
       [buildDregs({ storageTempC: 400 }), 'body.storageTempC'],
       [buildDregs({ madeAt: '2025-02-30' }), 'body.madeAt'],
@@ -82,8 +110,13 @@ describe('POST /api/cultures', () => {
 
   it('reports several bad fields at once', async () => {
     const { agent } = await keeper();
-    const res = await agent.post('/api/cultures').send({ strainName: '', form: 'jar', storageTempC: 'cold' }).expect(400);
-    expect(Object.keys(res.body.error.fields)).toEqual(expect.arrayContaining(['body.strainName', 'body.form', 'body.storageTempC', 'body.madeAt']));
+    const res = await agent
+      .post('/api/cultures')
+      .send({ strainName: '', form: 'jar', storageTempC: 'cold' })
+      .expect(400);
+    expect(Object.keys(res.body.error.fields)).toEqual(
+      expect.arrayContaining(['body.strainName', 'body.form', 'body.storageTempC', 'body.madeAt']),
+    );
   });
 
   it('refuses a parent the keeper may not use, with the same answer as a missing one', async () => {
@@ -108,19 +141,32 @@ describe('generation from the lineage', () => {
     expect(harvest.generation).toBe(1);
     const harvest2 = await create(agent, buildSlurry(harvest.id));
     expect(harvest2.generation).toBe(2);
-    const split = await agent.post(`/api/cultures/${harvest2.id}/split`).send({ count: 3, volumeMlEach: 50 }).expect(201);
+    const split = await agent
+      .post(`/api/cultures/${harvest2.id}/split`)
+      .send({ count: 3, volumeMlEach: 50 })
+      .expect(201);
     expect(split.body.cultures.map((c: { generation: number }) => c.generation)).toEqual([2, 2, 2]);
     const parent = (await agent.get(`/api/cultures/${harvest2.id}`).expect(200)).body.culture;
     expect(parent.state).toBe('used_up');
     const events = (await agent.get(`/api/cultures/${harvest2.id}/events`).expect(200)).body.events;
-    expect(events.at(-1)).toMatchObject({ kind: 'split', data: { childIds: split.body.cultures.map((c: { id: string }) => c.id) } });
+    expect(events.at(-1)).toMatchObject({
+      kind: 'split',
+      data: { childIds: split.body.cultures.map((c: { id: string }) => c.id) },
+    });
   });
 
   it('lets a lineage start at a stated generation, but never overrides a derived one', async () => {
     const { agent } = await keeper();
-    const gift = await create(agent, { ...buildSlurry(undefined), origin: { origin: 'batch_slurry', batchName: 'Friend’s Porter', crop: 'top', washed: false }, generation: 3 });
+    const gift = await create(agent, {
+      ...buildSlurry(undefined),
+      origin: { origin: 'batch_slurry', batchName: 'Friend’s Porter', crop: 'top', washed: false },
+      generation: 3,
+    });
     expect(gift.generation).toBe(3);
-    const res = await agent.post('/api/cultures').send({ ...buildSlurry(gift.id), generation: 0 }).expect(400);
+    const res = await agent
+      .post('/api/cultures')
+      .send({ ...buildSlurry(gift.id), generation: 0 })
+      .expect(400);
     expect(res.body.error.fields['body.generation']).toBeDefined();
   });
 
@@ -137,7 +183,10 @@ describe('PATCH /api/cultures/:id', () => {
   it('updates descriptive fields and normalises tags', async () => {
     const { agent } = await keeper();
     const c = await create(agent, buildDregs());
-    const res = await agent.patch(`/api/cultures/${c.id}`).send({ strainName: 'Hollow Oak house', tags: ['Saison', 'saison', 'Farmhouse'] }).expect(200);
+    const res = await agent
+      .patch(`/api/cultures/${c.id}`)
+      .send({ strainName: 'Hollow Oak house', tags: ['Saison', 'saison', 'Farmhouse'] })
+      .expect(200);
     expect(res.body.culture).toMatchObject({ strainName: 'Hollow Oak house', tags: ['saison', 'farmhouse'] });
     await agent.patch(`/api/cultures/${c.id}`).send({}).expect(400);
     const notes = await agent.patch(`/api/cultures/${c.id}`).send({ notes: 'smells of pear' }).expect(200);
@@ -161,7 +210,9 @@ describe('PATCH /api/cultures/:id', () => {
     const { agent } = await keeper();
     const root = await create(agent, buildSlurry(undefined));
     const child = await create(agent, buildSlurry(root.id));
-    await expect(t.database.pool.query('update cultures set parent_id = $1 where id = $2', [child.id, root.id])).rejects.toMatchObject({ code: '23514' });
+    await expect(
+      t.database.pool.query('update cultures set parent_id = $1 where id = $2', [child.id, root.id]),
+    ).rejects.toMatchObject({ code: '23514' });
   });
 
   it('moving a culture under a new parent recomputes the generation of its whole subtree', async () => {
@@ -172,7 +223,9 @@ describe('PATCH /api/cultures/:id', () => {
     const b2 = await create(agent, buildReculture(b1.id));
     expect([b.generation, b1.generation, b2.generation]).toEqual([0, 1, 1]);
     await agent.patch(`/api/cultures/${b.id}`).send({ parentId: a.id }).expect(200);
-    const gens = await Promise.all([b, b1, b2].map(async (c) => (await agent.get(`/api/cultures/${c.id}`)).body.culture.generation));
+    const gens = await Promise.all(
+      [b, b1, b2].map(async (c) => (await agent.get(`/api/cultures/${c.id}`)).body.culture.generation),
+    );
     expect(gens).toEqual([6, 7, 7]);
   });
 
@@ -202,7 +255,12 @@ describe('authorization', () => {
       ['post', `/api/cultures/${c.id}/quarantine`, {}],
     ];
     for (const [method, path, body] of paths) {
-      const req = (b.agent as unknown as Record<string, (p: string) => { send(b?: object): Promise<{ status: number; body: { error: { code: string } } }> }>)[method]!(path);
+      const req = (
+        b.agent as unknown as Record<
+          string,
+          (p: string) => { send(b?: object): Promise<{ status: number; body: { error: { code: string } } }> }
+        >
+      )[method]!(path);
       const res = await req.send(body);
       expect(res.status, `${method} ${path}`).toBe(404);
       expect(res.body.error.code).toBe('not_found');
@@ -248,14 +306,23 @@ describe('handling log', () => {
   it('a count can say how much culture there is, which turns cells/mL into total cells', async () => {
     const { agent } = await keeper();
     const c = await create(agent, buildDregs());
-    await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'counted', data: { cellsCounted: 120, squaresCounted: 10, dilution: 2 } }).expect(201);
+    await agent
+      .post(`/api/cultures/${c.id}/events`)
+      .send({ kind: 'counted', data: { cellsCounted: 120, squaresCounted: 10, dilution: 2 } })
+      .expect(201);
     const before = (await agent.get(`/api/cultures/${c.id}`)).body.culture.health;
     expect(before.cells).toBeNull();
     expect(before.cellsMissing).toMatch(/volume/);
-    await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'counted', data: { cellsCounted: 120, squaresCounted: 10, dilution: 2, cultureVolumeMl: 40 } }).expect(201);
+    await agent
+      .post(`/api/cultures/${c.id}/events`)
+      .send({ kind: 'counted', data: { cellsCounted: 120, squaresCounted: 10, dilution: 2, cultureVolumeMl: 40 } })
+      .expect(201);
     const after = (await agent.get(`/api/cultures/${c.id}`)).body.culture;
     expect(after.amount.volumeMl).toBe(40);
-    expect(after.health.cells.total).toBeCloseTo(hemocytometerCount({ cellsCounted: 120, squaresCounted: 10, dilution: 2 }).cellsPerMl * 40, -2);
+    expect(after.health.cells.total).toBeCloseTo(
+      hemocytometerCount({ cellsCounted: 120, squaresCounted: 10, dilution: 2 }).cellsPerMl * 40,
+      -2,
+    );
   });
 
   it('refuses absurd counts and half a stain', async () => {
@@ -273,8 +340,14 @@ describe('handling log', () => {
       const res = await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'counted', data }).expect(400);
       expect(Object.keys(res.body.error.fields).some((k) => k.startsWith('body.data'))).toBe(true);
     }
-    await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'note', occurredAt: new Date(Date.now() + 86_400_000).toISOString() }).expect(400);
-    await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'note', occurredAt: daysAgo(400) }).expect(400);
+    await agent
+      .post(`/api/cultures/${c.id}/events`)
+      .send({ kind: 'note', occurredAt: new Date(Date.now() + 86_400_000).toISOString() })
+      .expect(400);
+    await agent
+      .post(`/api/cultures/${c.id}/events`)
+      .send({ kind: 'note', occurredAt: daysAgo(400) })
+      .expect(400);
     await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'explode' }).expect(400);
     const events = (await agent.get(`/api/cultures/${c.id}/events`).expect(200)).body.events;
     expect(events.map((e: { kind: string }) => e.kind)).toEqual(['created']);
@@ -284,12 +357,20 @@ describe('handling log', () => {
     const { agent } = await keeper();
     const c = await create(agent, buildSlurry(undefined, { amount: { volumeMl: 100 } }));
     const first = (
-      await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'counted', data: { cellsCounted: 300, squaresCounted: 5, dilution: 100, live: 90, dead: 10 } }).expect(201)
+      await agent
+        .post(`/api/cultures/${c.id}/events`)
+        .send({ kind: 'counted', data: { cellsCounted: 300, squaresCounted: 5, dilution: 100, live: 90, dead: 10 } })
+        .expect(201)
     ).body.event;
     const fix = (
       await agent
         .post(`/api/cultures/${c.id}/events`)
-        .send({ kind: 'counted', supersedesEventId: first.id, notes: 'misread the dilution', data: { cellsCounted: 300, squaresCounted: 5, dilution: 10, live: 60, dead: 40 } })
+        .send({
+          kind: 'counted',
+          supersedesEventId: first.id,
+          notes: 'misread the dilution',
+          data: { cellsCounted: 300, squaresCounted: 5, dilution: 10, live: 60, dead: 40 },
+        })
         .expect(201)
     ).body.event;
     const events = (await agent.get(`/api/cultures/${c.id}/events`).expect(200)).body.events;
@@ -299,7 +380,10 @@ describe('handling log', () => {
     const detail = (await agent.get(`/api/cultures/${c.id}`).expect(200)).body.culture;
     expect(detail.health.measured.viability).toBeCloseTo(0.6, 5);
     // the old version cannot be corrected again, a different kind cannot correct it, nor can a note correct a split
-    const again = await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'counted', supersedesEventId: first.id, data: { cellsCounted: 1, squaresCounted: 1, dilution: 1 } }).expect(409);
+    const again = await agent
+      .post(`/api/cultures/${c.id}/events`)
+      .send({ kind: 'counted', supersedesEventId: first.id, data: { cellsCounted: 1, squaresCounted: 1, dilution: 1 } })
+      .expect(409);
     expect(again.body.error.code).toBe('already_corrected');
     await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'note', supersedesEventId: fix.id }).expect(400);
     const created = events.find((e: { kind: string }) => e.kind === 'created');
@@ -309,14 +393,19 @@ describe('handling log', () => {
   it('the log is append-only in the database', async () => {
     const { agent } = await keeper();
     const c = await create(agent, buildDregs());
-    await expect(t.database.pool.query(`update culture_events set notes = 'rewritten' where culture_id = $1`, [c.id])).rejects.toMatchObject({ code: '23001' });
+    await expect(
+      t.database.pool.query(`update culture_events set notes = 'rewritten' where culture_id = $1`, [c.id]),
+    ).rejects.toMatchObject({ code: '23001' });
   });
 
   it('a move changes where it is kept and when it needs attention', async () => {
     const { agent } = await keeper();
     const c = await create(agent, buildSlurry(undefined));
     const before = (await agent.get(`/api/cultures/${c.id}`)).body.culture;
-    await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'moved', data: { locationLabel: 'Garage shelf', storageTempC: 12 } }).expect(201);
+    await agent
+      .post(`/api/cultures/${c.id}/events`)
+      .send({ kind: 'moved', data: { locationLabel: 'Garage shelf', storageTempC: 12 } })
+      .expect(201);
     const after = (await agent.get(`/api/cultures/${c.id}`)).body.culture;
     expect(after.locationLabel).toBe('Garage shelf');
     expect(after.storageTempC).toBe(12);
@@ -327,11 +416,17 @@ describe('handling log', () => {
   it('pitching uses it up; a pitched culture cannot be fed', async () => {
     const { agent } = await keeper();
     const c = await create(agent, buildSlurry(undefined));
-    await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'pitched', data: { batchName: 'Batch 14: Millpond Mild' } }).expect(201);
+    await agent
+      .post(`/api/cultures/${c.id}/events`)
+      .send({ kind: 'pitched', data: { batchName: 'Batch 14: Millpond Mild' } })
+      .expect(201);
     const after = (await agent.get(`/api/cultures/${c.id}`)).body.culture;
     expect(after.state).toBe('pitched');
     expect(after.daysUntilAttention).toBeNull();
-    const fed = await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'fed', data: { volumeMl: 500 } }).expect(409);
+    const fed = await agent
+      .post(`/api/cultures/${c.id}/events`)
+      .send({ kind: 'fed', data: { volumeMl: 500 } })
+      .expect(409);
     expect(fed.body.error.code).toBe('culture_not_kept');
   });
 });
@@ -341,7 +436,10 @@ describe('state changes', () => {
     const { agent, user } = await keeper();
     const c = await create(agent, buildDregs());
     t.clock.now = new Date(Date.now() + 60_000);
-    const res = await agent.post(`/api/cultures/${c.id}/state`).send({ state: 'active', notes: 'into a starter' }).expect(200);
+    const res = await agent
+      .post(`/api/cultures/${c.id}/state`)
+      .send({ state: 'active', notes: 'into a starter' })
+      .expect(200);
     expect(res.body.culture.state).toBe('active');
     expect(res.body.culture.stateChangedBy).toMatchObject({ id: user.id });
     expect(res.body.culture.stateChangedAt).toBe(t.clock.now.toISOString());
@@ -353,8 +451,13 @@ describe('state changes', () => {
     await agent.post(`/api/cultures/${c.id}/state`).send({ state: 'frozen' }).expect(400);
     await agent.post('/api/cultures').send(buildReculture(c.id)).expect(400);
     t.clock.now = new Date();
-    const log = (await agent.get(`/api/cultures/${c.id}/events`)).body.events.filter((e: { kind: string }) => e.kind === 'state_changed');
-    expect(log.map((e: { data: { from: string; to: string } }) => `${e.data.from}>${e.data.to}`)).toEqual(['stored>active', 'active>discarded']);
+    const log = (await agent.get(`/api/cultures/${c.id}/events`)).body.events.filter(
+      (e: { kind: string }) => e.kind === 'state_changed',
+    );
+    expect(log.map((e: { data: { from: string; to: string } }) => `${e.data.from}>${e.data.to}`)).toEqual([
+      'stored>active',
+      'active>discarded',
+    ]);
   });
 });
 
@@ -363,7 +466,11 @@ describe('GET /api/cultures (library)', () => {
     const { agent } = await keeper();
     const dregs = await create(agent, buildDregs({ strainName: 'Hollow Oak saison', madeAt: daysAgo(3) }));
     const slurry = await create(agent, buildSlurry(undefined, { strainName: 'Quarry lager', madeAt: daysAgo(20) }));
-    const slant = await create(agent, { ...buildReculture(slurry.id), strainName: 'Quarry lager slant', madeAt: daysAgo(10) });
+    const slant = await create(agent, {
+      ...buildReculture(slurry.id),
+      strainName: 'Quarry lager slant',
+      madeAt: daysAgo(10),
+    });
     await create(agent, {
       strainName: 'Tidewater Kölsch',
       form: 'dry_pack',
@@ -403,12 +510,21 @@ describe('GET /api/cultures (library)', () => {
     const { agent } = await keeper();
     await create(agent, buildDregs({ madeAt: daysAgo(1) })); // ~30% default for dregs
     await create(agent, buildSlurry(undefined, { madeAt: daysAgo(2) })); // ~90%
-    await create(agent, { strainName: 'Young pack', form: 'liquid_pack', origin: { origin: 'purchased', maker: 'Invented Labs' }, storageTempC: 4, madeAt: daysAgo(10) });
+    await create(agent, {
+      strainName: 'Young pack',
+      form: 'liquid_pack',
+      origin: { origin: 'purchased', maker: 'Invented Labs' },
+      storageTempC: 4,
+      madeAt: daysAgo(10),
+    });
     const now = new Date();
     const expected = [
-      projectViability({ form: 'bottle_dregs', madeOrHarvestedAt: new Date(daysAgo(1)), at: now, storageTempC: 4 }).viability,
-      projectViability({ form: 'slurry_unwashed', madeOrHarvestedAt: new Date(daysAgo(2)), at: now, storageTempC: 3 }).viability,
-      projectViability({ form: 'liquid_pack', madeOrHarvestedAt: new Date(daysAgo(10)), at: now, storageTempC: 4 }).viability,
+      projectViability({ form: 'bottle_dregs', madeOrHarvestedAt: new Date(daysAgo(1)), at: now, storageTempC: 4 })
+        .viability,
+      projectViability({ form: 'slurry_unwashed', madeOrHarvestedAt: new Date(daysAgo(2)), at: now, storageTempC: 3 })
+        .viability,
+      projectViability({ form: 'liquid_pack', madeOrHarvestedAt: new Date(daysAgo(10)), at: now, storageTempC: 4 })
+        .viability,
     ];
     expect(expected.filter((v) => v >= 0.5)).toHaveLength(2); // the fixture spans the threshold
     const sorted = (await agent.get('/api/cultures?sort=viability&dir=desc').expect(200)).body.cultures;
@@ -424,8 +540,12 @@ describe('GET /api/cultures (library)', () => {
 
   it('validates the query', async () => {
     const { agent } = await keeper();
-    const res = await agent.get('/api/cultures?state=bubbling&pageSize=1000&minAgeDays=10&maxAgeDays=2&sort=colour').expect(400);
-    expect(Object.keys(res.body.error.fields)).toEqual(expect.arrayContaining(['query.state.0', 'query.pageSize', 'query.sort']));
+    const res = await agent
+      .get('/api/cultures?state=bubbling&pageSize=1000&minAgeDays=10&maxAgeDays=2&sort=colour')
+      .expect(400);
+    expect(Object.keys(res.body.error.fields)).toEqual(
+      expect.arrayContaining(['query.state.0', 'query.pageSize', 'query.sort']),
+    );
   });
 });
 
@@ -441,7 +561,13 @@ describe('lineage', () => {
     expect(res.focusId).toBe(b.id);
     const byId = new Map(res.nodes.map((n: { id: string }) => [n.id, n]));
     expect(byId.size).toBe(4);
-    expect(byId.get(b.id)).toMatchObject({ parentId: a.id, depth: 2, generation: 1, state: 'stored', owner: { id: user.id } });
+    expect(byId.get(b.id)).toMatchObject({
+      parentId: a.id,
+      depth: 2,
+      generation: 1,
+      state: 'stored',
+      owner: { id: user.id },
+    });
     expect(byId.get(c.id)).toMatchObject({ parentId: root.id, depth: 1 });
   });
 
@@ -457,7 +583,8 @@ describe('lineage', () => {
        from generate_series(0, 4999) as i order by i`,
       [prefix, user.id],
     );
-    const expectedDepth = (i: number): number => (i === 0 ? 0 : i < 30 ? expectedDepth(i - 1) + 1 : expectedDepth(Math.floor(i / 3)) + 1);
+    const expectedDepth = (i: number): number =>
+      i === 0 ? 0 : i < 30 ? expectedDepth(i - 1) + 1 : expectedDepth(Math.floor(i / 3)) + 1;
     const spy = vi.spyOn(t.database.pool, 'query');
     const res = (await agent.get(`/api/cultures/${prefix}4999/lineage`).expect(200)).body;
     const calls = spy.mock.calls.length;
@@ -466,7 +593,8 @@ describe('lineage', () => {
     expect(res.rootId).toBe(`${prefix}0`);
     expect(res.nodes).toHaveLength(5000);
     const depths = new Map<string, number>(res.nodes.map((n: { id: string; depth: number }) => [n.id, n.depth]));
-    for (const i of [0, 1, 29, 30, 31, 89, 90, 1234, 4999]) expect(depths.get(`${prefix}${i}`), `node ${i}`).toBe(expectedDepth(i));
+    for (const i of [0, 1, 29, 30, 31, 89, 90, 1234, 4999])
+      expect(depths.get(`${prefix}${i}`), `node ${i}`).toBe(expectedDepth(i));
     expect(Math.max(...depths.values())).toBeGreaterThan(30);
     for (const n of res.nodes) if (n.parentId) expect(depths.get(n.parentId)).toBe(n.depth - 1);
   });
@@ -484,11 +612,17 @@ describe('quarantine', () => {
     const preview = (await agent.get(`/api/cultures/${root.id}/quarantine-preview`).expect(200)).body.descendants;
     expect(preview.map((d: { id: string }) => d.id)).toEqual([a.id, a1.id]);
 
-    const wrong = await agent.post(`/api/cultures/${root.id}/quarantine`).send({ flagDescendantIds: [a.id, b.id] }).expect(400);
+    const wrong = await agent
+      .post(`/api/cultures/${root.id}/quarantine`)
+      .send({ flagDescendantIds: [a.id, b.id] })
+      .expect(400);
     expect(wrong.body.error.fields['body.flagDescendantIds'][0]).toContain(b.id);
     expect((await agent.get(`/api/cultures/${a.id}`)).body.culture.suspect).toBe(false);
 
-    const res = await agent.post(`/api/cultures/${root.id}/quarantine`).send({ notes: 'ropy and sour', flagDescendantIds: [a.id, a1.id] }).expect(200);
+    const res = await agent
+      .post(`/api/cultures/${root.id}/quarantine`)
+      .send({ notes: 'ropy and sour', flagDescendantIds: [a.id, a1.id] })
+      .expect(200);
     expect(res.body.flagged).toBe(2);
     const rootAfter = (await agent.get(`/api/cultures/${root.id}`)).body.culture;
     expect(rootAfter.state).toBe('quarantined');
@@ -497,12 +631,20 @@ describe('quarantine', () => {
     expect(a1After.suspectFrom).toMatchObject({ id: root.id, strainName: 'Crooked Gate wild' });
     expect(a1After.warnings.join(' ')).toMatch(/contamination/i);
     const a1Log = (await agent.get(`/api/cultures/${a1.id}/events`)).body.events;
-    expect(a1Log.at(-1)).toMatchObject({ kind: 'contamination_suspected', data: { fromCultureId: root.id, fromEventId: res.body.eventId } });
+    expect(a1Log.at(-1)).toMatchObject({
+      kind: 'contamination_suspected',
+      data: { fromCultureId: root.id, fromEventId: res.body.eventId },
+    });
     // a new child of a suspect culture carries the flag from the same source
     const child = await create(agent, buildReculture(a1.id));
     expect((await agent.get(`/api/cultures/${child.id}`)).body.culture.suspectFrom.id).toBe(root.id);
     const lineage = (await agent.get(`/api/cultures/${root.id}/lineage`)).body.nodes;
-    expect(lineage.filter((n: { suspect: boolean }) => n.suspect).map((n: { id: string }) => n.id).sort()).toEqual([root.id, a.id, a1.id, child.id].sort());
+    expect(
+      lineage
+        .filter((n: { suspect: boolean }) => n.suspect)
+        .map((n: { id: string }) => n.id)
+        .sort(),
+    ).toEqual([root.id, a.id, a1.id, child.id].sort());
   });
 });
 
@@ -510,14 +652,22 @@ describe('GET /api/cultures/:id/health', () => {
   it('gives a projected series through the coming weeks with the measured points', async () => {
     const { agent } = await keeper();
     const c = await create(agent, buildSlurry(undefined, { madeAt: daysAgo(10) }));
-    await agent.post(`/api/cultures/${c.id}/events`).send({ kind: 'counted', occurredAt: daysAgo(5), data: { cellsCounted: 400, squaresCounted: 5, dilution: 100, live: 170, dead: 30 } }).expect(201);
+    await agent
+      .post(`/api/cultures/${c.id}/events`)
+      .send({
+        kind: 'counted',
+        occurredAt: daysAgo(5),
+        data: { cellsCounted: 400, squaresCounted: 5, dilution: 100, live: 170, dead: 30 },
+      })
+      .expect(201);
     const res = (await agent.get(`/api/cultures/${c.id}/health?days=28`).expect(200)).body;
     expect(res.measured).toHaveLength(1);
     expect(res.measured[0].viability).toBeCloseTo(0.85, 5);
     expect(res.series[0].viability).toBeCloseTo(0.85, 5);
     const last = res.series.at(-1);
     expect(new Date(last.at).getTime()).toBeGreaterThan(Date.now() + 26 * 86_400_000);
-    for (let i = 1; i < res.series.length; i++) expect(res.series[i].viability).toBeLessThanOrEqual(res.series[i - 1].viability);
+    for (let i = 1; i < res.series.length; i++)
+      expect(res.series[i].viability).toBeLessThanOrEqual(res.series[i - 1].viability);
     await agent.get(`/api/cultures/${c.id}/health?days=9000`).expect(400);
   });
 });

@@ -36,14 +36,23 @@ import {
 
 /** The backup file arrives as an upload (field "file"), so a large library is not held to the JSON body limit. */
 function receiveBackup(): RequestHandler {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 50 * 1024 * 1024, files: 1 } }).single('file');
+  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 50 * 1024 * 1024, files: 1 } }).single(
+    'file',
+  );
   return (req, res, next) =>
     upload(req, res, (err: unknown) => {
       if (err instanceof multer.MulterError) {
-        return next(err.code === 'LIMIT_FILE_SIZE' ? new AppError(413, 'file_too_large', 'Backups can be at most 50 MB') : badRequest('Send the backup in the "file" field', 'bad_upload'));
+        return next(
+          err.code === 'LIMIT_FILE_SIZE'
+            ? new AppError(413, 'file_too_large', 'Backups can be at most 50 MB')
+            : badRequest('Send the backup in the "file" field', 'bad_upload'),
+        );
       }
       if (err) return next(err);
-      if (!req.file) return next(badRequest('Choose a backup file to import', 'validation_failed', { file: ['Choose a backup file'] }));
+      if (!req.file)
+        return next(
+          badRequest('Choose a backup file to import', 'validation_failed', { file: ['Choose a backup file'] }),
+        );
       next();
     });
 }
@@ -58,13 +67,19 @@ export function culturesRouter(ctx: ServiceContext) {
   router.get('/export.csv', async (req, res) => {
     const csv = await exportLibraryCsv(ctx, currentUser(req));
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
-    res.setHeader('Content-Disposition', `attachment; filename="barmkeep-cultures-${ctx.now().toISOString().slice(0, 10)}.csv"`);
+    res.setHeader(
+      'Content-Disposition',
+      `attachment; filename="barmkeep-cultures-${ctx.now().toISOString().slice(0, 10)}.csv"`,
+    );
     res.send(csv);
   });
 
   router.get('/backup.json', async (req, res) => {
     const backup = await exportBackup(ctx, currentUser(req));
-    res.setHeader('Content-Disposition', `attachment; filename="barmkeep-backup-${ctx.now().toISOString().slice(0, 10)}.json"`);
+    res.setHeader(
+      'Content-Disposition',
+      `attachment; filename="barmkeep-backup-${ctx.now().toISOString().slice(0, 10)}.json"`,
+    );
     res.json(backup);
   });
 
@@ -90,25 +105,37 @@ export function culturesRouter(ctx: ServiceContext) {
     res.json({ culture: await presentDetail(ctx, row) });
   });
 
-  router.get('/:id/health', validate({ params: CultureIdParamsSchema, query: CultureHealthQuerySchema }), async (req, res) => {
-    const { days } = req.query as unknown as { days: number };
-    res.json(await getCultureHealthSeries(ctx, currentUser(req), id(req), days));
-  });
+  router.get(
+    '/:id/health',
+    validate({ params: CultureIdParamsSchema, query: CultureHealthQuerySchema }),
+    async (req, res) => {
+      const { days } = req.query as unknown as { days: number };
+      res.json(await getCultureHealthSeries(ctx, currentUser(req), id(req), days));
+    },
+  );
 
   router.get('/:id/events', validate({ params: CultureIdParamsSchema }), async (req, res) => {
     res.json({ events: await listCultureEvents(ctx, currentUser(req), id(req)) });
   });
 
-  router.post('/:id/events', validate({ params: CultureIdParamsSchema, body: CultureEventCreateSchema }), async (req, res) => {
-    const user = currentUser(req);
-    const event = await addCultureEvent(ctx, user, id(req), req.body);
-    res.status(201).json({ event: presentEvent(event, user.name, null) });
-  });
+  router.post(
+    '/:id/events',
+    validate({ params: CultureIdParamsSchema, body: CultureEventCreateSchema }),
+    async (req, res) => {
+      const user = currentUser(req);
+      const event = await addCultureEvent(ctx, user, id(req), req.body);
+      res.status(201).json({ event: presentEvent(event, user.name, null) });
+    },
+  );
 
-  router.post('/:id/state', validate({ params: CultureIdParamsSchema, body: CultureStateChangeSchema }), async (req, res) => {
-    const row = await changeCultureState(ctx, currentUser(req), id(req), req.body);
-    res.json({ culture: await presentDetail(ctx, row) });
-  });
+  router.post(
+    '/:id/state',
+    validate({ params: CultureIdParamsSchema, body: CultureStateChangeSchema }),
+    async (req, res) => {
+      const row = await changeCultureState(ctx, currentUser(req), id(req), req.body);
+      res.json({ culture: await presentDetail(ctx, row) });
+    },
+  );
 
   router.post('/:id/split', validate({ params: CultureIdParamsSchema, body: CultureSplitSchema }), async (req, res) => {
     const rows = await splitCulture(ctx, currentUser(req), id(req), req.body);
@@ -124,9 +151,13 @@ export function culturesRouter(ctx: ServiceContext) {
     res.json({ descendants: await quarantinePreview(ctx, currentUser(req), id(req)) });
   });
 
-  router.post('/:id/quarantine', validate({ params: CultureIdParamsSchema, body: CultureQuarantineSchema }), async (req, res) => {
-    res.json(await quarantineCulture(ctx, currentUser(req), id(req), req.body));
-  });
+  router.post(
+    '/:id/quarantine',
+    validate({ params: CultureIdParamsSchema, body: CultureQuarantineSchema }),
+    async (req, res) => {
+      res.json(await quarantineCulture(ctx, currentUser(req), id(req), req.body));
+    },
+  );
 
   return router;
 }

@@ -20,7 +20,10 @@ async function jpegWithGps() {
     .toBuffer();
 }
 
-const png = () => sharp({ create: { width: 300, height: 200, channels: 4, background: { r: 20, g: 120, b: 60, alpha: 0.5 } } }).png().toBuffer();
+const png = () =>
+  sharp({ create: { width: 300, height: 200, channels: 4, background: { r: 20, g: 120, b: 60, alpha: 0.5 } } })
+    .png()
+    .toBuffer();
 
 function chunk(type: string, data: Buffer) {
   const len = Buffer.alloc(4);
@@ -37,7 +40,12 @@ function pngBombHeader() {
   ihdr.writeUInt32BE(60_000, 4);
   ihdr.writeUInt8(8, 8); // bit depth
   ihdr.writeUInt8(0, 9); // greyscale
-  return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', Buffer.from([0x78, 0x9c, 0x03, 0x00, 0x00, 0x00, 0x00, 0x01])), chunk('IEND', Buffer.alloc(0))]);
+  return Buffer.concat([
+    Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+    chunk('IHDR', ihdr),
+    chunk('IDAT', Buffer.from([0x78, 0x9c, 0x03, 0x00, 0x00, 0x00, 0x00, 0x01])),
+    chunk('IEND', Buffer.alloc(0)),
+  ]);
 }
 
 async function setup(t: TestApp) {
@@ -65,17 +73,28 @@ describe('photos on local disk', () => {
     const before = exifReader((await sharp(original).metadata()).exif!);
     expect(before.GPSInfo?.GPSLatitude).toEqual([52, 22, 0]); // the fixture really carries a position
 
-    const res = await agent.post(`/api/cultures/${cultureId}/photos`).field('caption', 'Sediment after swirling').attach('photo', original, { filename: 'IMG_0042.jpg', contentType: 'image/jpeg' }).expect(201);
+    const res = await agent
+      .post(`/api/cultures/${cultureId}/photos`)
+      .field('caption', 'Sediment after swirling')
+      .attach('photo', original, { filename: 'IMG_0042.jpg', contentType: 'image/jpeg' })
+      .expect(201);
     const photo = res.body.photo;
     expect(photo).toMatchObject({ caption: 'Sediment after swirling', width: 1600, height: 1200 });
     expect(photo.webUrl).toMatch(/^\/api\/cultures\//);
 
-    for (const [url, max] of [[photo.webUrl, 1600], [photo.thumbUrl, 320]] as const) {
-      const img = await agent.get(url).buffer(true).parse((r, cb) => {
-        const parts: Buffer[] = [];
-        r.on('data', (c: Buffer) => parts.push(c));
-        r.on('end', () => cb(null, Buffer.concat(parts)));
-      }).expect(200);
+    for (const [url, max] of [
+      [photo.webUrl, 1600],
+      [photo.thumbUrl, 320],
+    ] as const) {
+      const img = await agent
+        .get(url)
+        .buffer(true)
+        .parse((r, cb) => {
+          const parts: Buffer[] = [];
+          r.on('data', (c: Buffer) => parts.push(c));
+          r.on('end', () => cb(null, Buffer.concat(parts)));
+        })
+        .expect(200);
       expect(img.headers['content-type']).toBe('image/webp');
       expect(img.headers['cache-control']).toContain('private');
       const meta = await sharp(img.body as Buffer).metadata();
@@ -95,7 +114,10 @@ describe('photos on local disk', () => {
 
   it('accepts a PNG and keeps small images small', async () => {
     const { agent, cultureId } = await setup(t);
-    const res = await agent.post(`/api/cultures/${cultureId}/photos`).attach('photo', await png(), 'krausen.png').expect(201);
+    const res = await agent
+      .post(`/api/cultures/${cultureId}/photos`)
+      .attach('photo', await png(), 'krausen.png')
+      .expect(201);
     expect(res.body.photo).toMatchObject({ width: 300, height: 200 });
   });
 
@@ -103,7 +125,10 @@ describe('photos on local disk', () => {
     const { agent, cultureId } = await setup(t);
     const res = await agent
       .post(`/api/cultures/${cultureId}/photos`)
-      .attach('photo', Buffer.from('this is a shopping list, not a photo\n'), { filename: 'jar.jpg', contentType: 'image/jpeg' })
+      .attach('photo', Buffer.from('this is a shopping list, not a photo\n'), {
+        filename: 'jar.jpg',
+        contentType: 'image/jpeg',
+      })
       .expect(400);
     expect(res.body.error.code).toBe('not_an_image');
     expect((await agent.get(`/api/cultures/${cultureId}/photos`)).body.photos).toEqual([]);
@@ -129,7 +154,9 @@ describe('photos on local disk', () => {
 
   it('refuses a real image past the pixel limit', async () => {
     const { agent, cultureId } = await setup(t);
-    const wide = await sharp({ create: { width: 8000, height: 5100, channels: 3, background: '#000' } }).png({ compressionLevel: 9 }).toBuffer();
+    const wide = await sharp({ create: { width: 8000, height: 5100, channels: 3, background: '#000' } })
+      .png({ compressionLevel: 9 })
+      .toBuffer();
     expect(wide.length).toBeLessThan(15 * 1024 * 1024);
     const res = await agent.post(`/api/cultures/${cultureId}/photos`).attach('photo', wide, 'wide.png').expect(413);
     expect(res.body.error.code).toBe('image_too_large');
@@ -138,21 +165,37 @@ describe('photos on local disk', () => {
   it('needs a file, and an event of the same culture', async () => {
     const { agent, cultureId } = await setup(t);
     await agent.post(`/api/cultures/${cultureId}/photos`).field('caption', 'no file').expect(400);
-    const res = await agent.post(`/api/cultures/${cultureId}/photos`).field('eventId', 'not-an-event').attach('photo', await png(), 'a.png').expect(400);
+    const res = await agent
+      .post(`/api/cultures/${cultureId}/photos`)
+      .field('eventId', 'not-an-event')
+      .attach('photo', await png(), 'a.png')
+      .expect(400);
     expect(res.body.error.fields['body.eventId']).toBeDefined();
     const ev = (await agent.get(`/api/cultures/${cultureId}/events`)).body.events[0];
-    await agent.post(`/api/cultures/${cultureId}/photos`).field('eventId', ev.id).attach('photo', await png(), 'a.png').expect(201);
+    await agent
+      .post(`/api/cultures/${cultureId}/photos`)
+      .field('eventId', ev.id)
+      .attach('photo', await png(), 'a.png')
+      .expect(201);
   });
 
   it('only people who may see the culture may list, fetch, add or delete its photos', async () => {
     const { agent, cultureId } = await setup(t);
-    const photo = (await agent.post(`/api/cultures/${cultureId}/photos`).attach('photo', await png(), 'a.png').expect(201)).body.photo;
+    const photo = (
+      await agent
+        .post(`/api/cultures/${cultureId}/photos`)
+        .attach('photo', await png(), 'a.png')
+        .expect(201)
+    ).body.photo;
     const other = t.agent();
     await signUp(other);
     await other.get(`/api/cultures/${cultureId}/photos`).expect(404);
     await other.get(photo.webUrl).expect(404);
     await other.get(photo.thumbUrl).expect(404);
-    await other.post(`/api/cultures/${cultureId}/photos`).attach('photo', await png(), 'a.png').expect(404);
+    await other
+      .post(`/api/cultures/${cultureId}/photos`)
+      .attach('photo', await png(), 'a.png')
+      .expect(404);
     await other.delete(`/api/cultures/${cultureId}/photos/${photo.id}`).expect(404);
     await t.agent().get(photo.webUrl).expect(401);
     await agent.get(photo.webUrl).expect(200);
@@ -182,17 +225,29 @@ describe('photos in an S3-compatible bucket', () => {
 
   it('puts both sizes in the bucket, serves them through the API only, and deletes them', async () => {
     const { agent, cultureId } = await setup(t);
-    const photo = (await agent.post(`/api/cultures/${cultureId}/photos`).attach('photo', await jpegWithGps(), 'a.jpg').expect(201)).body.photo;
+    const photo = (
+      await agent
+        .post(`/api/cultures/${cultureId}/photos`)
+        .attach('photo', await jpegWithGps(), 'a.jpg')
+        .expect(201)
+    ).body.photo;
     const keys = [...s3.objects.keys()].filter((k) => k.includes(photo.id)).sort();
-    expect(keys).toEqual([`barmkeep-test/photos/cultures/${cultureId}/${photo.id}-thumb.webp`, `barmkeep-test/photos/cultures/${cultureId}/${photo.id}-web.webp`]);
+    expect(keys).toEqual([
+      `barmkeep-test/photos/cultures/${cultureId}/${photo.id}-thumb.webp`,
+      `barmkeep-test/photos/cultures/${cultureId}/${photo.id}-web.webp`,
+    ]);
     const stored = s3.objects.get(keys[1]!)!;
     expect(stored.contentType).toBe('image/webp');
     expect((await sharp(stored.body).metadata()).exif).toBeUndefined();
-    const res = await agent.get(photo.webUrl).buffer(true).parse((r, cb) => {
-      const parts: Buffer[] = [];
-      r.on('data', (c: Buffer) => parts.push(c));
-      r.on('end', () => cb(null, Buffer.concat(parts)));
-    }).expect(200);
+    const res = await agent
+      .get(photo.webUrl)
+      .buffer(true)
+      .parse((r, cb) => {
+        const parts: Buffer[] = [];
+        r.on('data', (c: Buffer) => parts.push(c));
+        r.on('end', () => cb(null, Buffer.concat(parts)));
+      })
+      .expect(200);
     expect(Buffer.compare(res.body as Buffer, stored.body)).toBe(0);
     expect(s3.requests.some((r) => r.method === 'GET' && r.path.endsWith(`${photo.id}-web.webp`))).toBe(true);
     await agent.delete(`/api/cultures/${cultureId}/photos/${photo.id}`).expect(204);

@@ -20,12 +20,19 @@ function receivePhoto(): RequestHandler {
   return (req, res, next) => {
     upload(req, res, (err: unknown) => {
       if (!err) {
-        if (!req.file) return next(badRequest('Choose a photo to upload', 'validation_failed', { file: ['Choose a photo to upload'] }));
+        if (!req.file)
+          return next(
+            badRequest('Choose a photo to upload', 'validation_failed', { file: ['Choose a photo to upload'] }),
+          );
         return next();
       }
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE') {
-          return next(new AppError(413, 'file_too_large', `Photos can be at most ${photoLimits.maxBytes / 1024 / 1024} MB`, { file: ['This file is too large'] }));
+          return next(
+            new AppError(413, 'file_too_large', `Photos can be at most ${photoLimits.maxBytes / 1024 / 1024} MB`, {
+              file: ['This file is too large'],
+            }),
+          );
         }
         return next(badRequest('Send one photo in the "photo" field', 'bad_upload', { file: [err.message] }));
       }

@@ -32,7 +32,8 @@ export function useCreateCultureMutation() {
   const queryClient = useQueryClient();
   const invalidate = useInvalidateCulture();
   return useMutation({
-    mutationFn: (input: CultureCreateInput) => api.post<{ culture: CultureDetailDto }>('/cultures', input).then((r) => r.culture),
+    mutationFn: (input: CultureCreateInput) =>
+      api.post<{ culture: CultureDetailDto }>('/cultures', input).then((r) => r.culture),
     onSuccess: async (culture) => {
       queryClient.setQueryData(cultureKeys.detail(culture.id), culture);
       await invalidate(culture.parentId ?? undefined);
@@ -43,7 +44,8 @@ export function useCreateCultureMutation() {
 export function useUpdateCultureMutation(id: string) {
   const invalidate = useInvalidateCulture();
   return useMutation({
-    mutationFn: (input: CultureUpdateInput) => api.patch<{ culture: CultureDetailDto }>(path(id), input).then((r) => r.culture),
+    mutationFn: (input: CultureUpdateInput) =>
+      api.patch<{ culture: CultureDetailDto }>(path(id), input).then((r) => r.culture),
     onSuccess: () => invalidate(id),
   });
 }
@@ -51,7 +53,8 @@ export function useUpdateCultureMutation(id: string) {
 export function useAddEventMutation(id: string) {
   const invalidate = useInvalidateCulture();
   return useMutation({
-    mutationFn: (input: CultureEventCreateInput) => api.post<{ event: CultureEventDto }>(`${path(id)}/events`, input).then((r) => r.event),
+    mutationFn: (input: CultureEventCreateInput) =>
+      api.post<{ event: CultureEventDto }>(`${path(id)}/events`, input).then((r) => r.event),
     onSuccess: () => invalidate(id),
   });
 }
@@ -59,7 +62,8 @@ export function useAddEventMutation(id: string) {
 export function useChangeStateMutation(id: string) {
   const invalidate = useInvalidateCulture();
   return useMutation({
-    mutationFn: (input: CultureStateChangeInput) => api.post<{ culture: CultureDetailDto }>(`${path(id)}/state`, input).then((r) => r.culture),
+    mutationFn: (input: CultureStateChangeInput) =>
+      api.post<{ culture: CultureDetailDto }>(`${path(id)}/state`, input).then((r) => r.culture),
     onSuccess: () => invalidate(id),
   });
 }
@@ -67,7 +71,8 @@ export function useChangeStateMutation(id: string) {
 export function useSplitMutation(id: string) {
   const invalidate = useInvalidateCulture();
   return useMutation({
-    mutationFn: (input: CultureSplitInput) => api.post<{ cultures: CultureSummaryDto[] }>(`${path(id)}/split`, input).then((r) => r.cultures),
+    mutationFn: (input: CultureSplitInput) =>
+      api.post<{ cultures: CultureSummaryDto[] }>(`${path(id)}/split`, input).then((r) => r.cultures),
     onSuccess: () => invalidate(id),
   });
 }
@@ -75,7 +80,8 @@ export function useSplitMutation(id: string) {
 export function useQuarantineMutation(id: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: CultureQuarantineInput) => api.post<{ flagged: number; eventId: string }>(`${path(id)}/quarantine`, input),
+    mutationFn: (input: CultureQuarantineInput) =>
+      api.post<{ flagged: number; eventId: string }>(`${path(id)}/quarantine`, input),
     // every flagged descendant changed too
     onSuccess: () => queryClient.invalidateQueries({ queryKey: cultureKeys.all }),
   });
@@ -92,11 +98,21 @@ export function useUploadPhotoMutation(id: string) {
       form.set('photo', input.file);
       let res: Response;
       try {
-        res = await fetch(`/api${path(id)}/photos`, { method: 'POST', body: form, credentials: 'same-origin', headers: { Accept: 'application/json' } });
+        res = await fetch(`/api${path(id)}/photos`, {
+          method: 'POST',
+          body: form,
+          credentials: 'same-origin',
+          headers: { Accept: 'application/json' },
+        });
       } catch {
-        throw new ApiError({ status: 0, code: 'network_error', message: 'Could not reach Barmkeep. Check your connection and try again.' });
+        throw new ApiError({
+          status: 0,
+          code: 'network_error',
+          message: 'Could not reach Barmkeep. Check your connection and try again.',
+        });
       }
-      const body = (await res.json().catch(() => undefined)) as ({ photo: CulturePhotoDto } & Partial<ApiErrorBody>) | undefined;
+      const body = (await res.json().catch(() => undefined)) as
+        ({ photo: CulturePhotoDto } & Partial<ApiErrorBody>) | undefined;
       if (!res.ok || !body?.photo) {
         throw new ApiError({
           status: res.status,
@@ -128,13 +144,28 @@ export function useImportBackupMutation() {
       form.set('file', file);
       let res: Response;
       try {
-        res = await fetch('/api/cultures/backup', { method: 'POST', body: form, credentials: 'same-origin', headers: { Accept: 'application/json' } });
+        res = await fetch('/api/cultures/backup', {
+          method: 'POST',
+          body: form,
+          credentials: 'same-origin',
+          headers: { Accept: 'application/json' },
+        });
       } catch {
-        throw new ApiError({ status: 0, code: 'network_error', message: 'Could not reach Barmkeep. Check your connection and try again.' });
+        throw new ApiError({
+          status: 0,
+          code: 'network_error',
+          message: 'Could not reach Barmkeep. Check your connection and try again.',
+        });
       }
-      const body = (await res.json().catch(() => undefined)) as ({ imported: { cultures: number; events: number } } & Partial<ApiErrorBody>) | undefined;
+      const body = (await res.json().catch(() => undefined)) as
+        ({ imported: { cultures: number; events: number } } & Partial<ApiErrorBody>) | undefined;
       if (!res.ok || !body?.imported) {
-        throw new ApiError({ status: res.status, code: body?.error?.code ?? 'bad_response', message: body?.error?.message ?? 'The import failed.', fields: body?.error?.fields });
+        throw new ApiError({
+          status: res.status,
+          code: body?.error?.code ?? 'bad_response',
+          message: body?.error?.message ?? 'The import failed.',
+          fields: body?.error?.fields,
+        });
       }
       return body.imported;
     },

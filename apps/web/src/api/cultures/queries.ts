@@ -75,7 +75,8 @@ export const cultureQueries = {
   events: (id: string) =>
     queryOptions({
       queryKey: cultureKeys.events(id),
-      queryFn: ({ signal }) => api.get<{ events: CultureEventDto[] }>(`${path(id)}/events`, signal).then((r) => r.events),
+      queryFn: ({ signal }) =>
+        api.get<{ events: CultureEventDto[] }>(`${path(id)}/events`, signal).then((r) => r.events),
     }),
   health: (id: string, days = 56) =>
     queryOptions({
@@ -85,7 +86,8 @@ export const cultureQueries = {
   photos: (id: string) =>
     queryOptions({
       queryKey: cultureKeys.photos(id),
-      queryFn: ({ signal }) => api.get<{ photos: CulturePhotoDto[] }>(`${path(id)}/photos`, signal).then((r) => r.photos),
+      queryFn: ({ signal }) =>
+        api.get<{ photos: CulturePhotoDto[] }>(`${path(id)}/photos`, signal).then((r) => r.photos),
     }),
   lineage: (id: string) =>
     queryOptions({
@@ -97,6 +99,8 @@ export const cultureQueries = {
     queryOptions({
       queryKey: cultureKeys.quarantine(id),
       queryFn: ({ signal }) =>
-        api.get<{ descendants: QuarantineCandidate[] }>(`${path(id)}/quarantine-preview`, signal).then((r) => r.descendants),
+        api
+          .get<{ descendants: QuarantineCandidate[] }>(`${path(id)}/quarantine-preview`, signal)
+          .then((r) => r.descendants),
     }),
 };

@@ -22,8 +22,28 @@ import {
   useUploadPhotoMutation,
 } from '../../api/cultures/mutations';
 import { isApiError } from '../../api/client';
-import { Button, ButtonLink, Card, FormAlert, Loading, Notice, PageHeader, Select, TextField, cx } from '../../components';
-import { actionLabels, eventLabels, formatCells, formatDate, formLabels, originLabels, pct, stateLabels } from '../../lib/cultureLabels';
+import {
+  Button,
+  ButtonLink,
+  Card,
+  FormAlert,
+  Loading,
+  Notice,
+  PageHeader,
+  Select,
+  TextField,
+  cx,
+} from '../../components';
+import {
+  actionLabels,
+  eventLabels,
+  formatCells,
+  formatDate,
+  formLabels,
+  originLabels,
+  pct,
+  stateLabels,
+} from '../../lib/cultureLabels';
 import { formatDateTime } from '../../lib/format';
 import { OfferInClub } from '../../components/clubs/OfferInClub';
 
@@ -53,9 +73,16 @@ function OriginFacts({ c }: { c: CultureDetailDto }) {
     case 'bottle_dregs':
       return (
         <>
-          <Fact label="Beer">{o.beerName}{o.brewedBy ? `, by ${o.brewedBy}` : ''}</Fact>
-          <Fact label="Bottles pooled"><span className="num">{o.bottleCount}</span></Fact>
-          <Fact label="Pasteurized">{o.pasteurized === 'yes' ? 'Yes' : o.pasteurized === 'no' ? 'No' : 'Not known'}</Fact>
+          <Fact label="Beer">
+            {o.beerName}
+            {o.brewedBy ? `, by ${o.brewedBy}` : ''}
+          </Fact>
+          <Fact label="Bottles pooled">
+            <span className="num">{o.bottleCount}</span>
+          </Fact>
+          <Fact label="Pasteurized">
+            {o.pasteurized === 'yes' ? 'Yes' : o.pasteurized === 'no' ? 'No' : 'Not known'}
+          </Fact>
         </>
       );
     case 'purchased':
@@ -70,7 +97,9 @@ function OriginFacts({ c }: { c: CultureDetailDto }) {
       return (
         <>
           <Fact label="Batch">{o.batchName}</Fact>
-          <Fact label="Crop">{o.crop === 'top' ? 'Top' : 'Bottom'}, {o.washed ? 'washed' : 'unwashed'}</Fact>
+          <Fact label="Crop">
+            {o.crop === 'top' ? 'Top' : 'Bottom'}, {o.washed ? 'washed' : 'unwashed'}
+          </Fact>
         </>
       );
     case 'gift':
@@ -87,7 +116,13 @@ function Health({ c }: { c: CultureDetailDto }) {
     <Card className="space-y-4">
       <h2 className="text-lg font-semibold">Health today</h2>
       <dl className="grid grid-cols-2 gap-4 sm:grid-cols-3">
-        <Fact label={h.viabilityBasis === 'measured' ? 'Viability (from your stain, projected)' : 'Viability (projected from form and age)'}>
+        <Fact
+          label={
+            h.viabilityBasis === 'measured'
+              ? 'Viability (from your stain, projected)'
+              : 'Viability (projected from form and age)'
+          }
+        >
           <span className="num text-xl">{pct(h.viability)}</span>
         </Fact>
         <Fact label={h.cells?.kind === 'estimate' ? 'Live cells — estimate' : 'Live cells'}>
@@ -100,7 +135,8 @@ function Health({ c }: { c: CultureDetailDto }) {
         <Fact label="Needs attention">
           {IN_USE_STATES.includes(c.state) ? (
             <span className={cx(h.storage.daysLeft <= 3 && 'text-warn', h.storage.daysLeft < 0 && 'text-danger')}>
-              {h.storage.daysLeft < 0 ? `${-h.storage.daysLeft} days overdue` : `in ${h.storage.daysLeft} days`}: {actionLabels[h.storage.action] ?? h.storage.action}
+              {h.storage.daysLeft < 0 ? `${-h.storage.daysLeft} days overdue` : `in ${h.storage.daysLeft} days`}:{' '}
+              {actionLabels[h.storage.action] ?? h.storage.action}
             </span>
           ) : (
             'No longer kept'
@@ -110,13 +146,23 @@ function Health({ c }: { c: CultureDetailDto }) {
       {h.cells ? (
         <p className="text-sm text-ink-muted">
           {h.cells.kind === 'estimate' ? 'Estimate: ' : 'From your count: '}
-          total <span className="num">{formatCells(h.cells.total)}</span> (range <span className="num">{formatCells(h.cells.low)}</span>–<span className="num">{formatCells(h.cells.high)}</span>). {h.cells.basis}
+          total <span className="num">{formatCells(h.cells.total)}</span> (range{' '}
+          <span className="num">{formatCells(h.cells.low)}</span>–
+          <span className="num">{formatCells(h.cells.high)}</span>). {h.cells.basis}
         </p>
       ) : h.cellsMissing ? (
         <p className="text-sm text-ink-muted">{h.cellsMissing}</p>
       ) : null}
-      {h.outOfRange && h.note ? <Notice tone="warning" title="Outside the model’s range">{h.note}</Notice> : null}
-      {h.generationAdvice.level !== 'ok' ? <Notice tone={h.generationAdvice.level === 'stop' ? 'danger' : 'warning'} title={`Generation ${c.generation}`}>{h.generationAdvice.message}</Notice> : null}
+      {h.outOfRange && h.note ? (
+        <Notice tone="warning" title="Outside the model’s range">
+          {h.note}
+        </Notice>
+      ) : null}
+      {h.generationAdvice.level !== 'ok' ? (
+        <Notice tone={h.generationAdvice.level === 'stop' ? 'danger' : 'warning'} title={`Generation ${c.generation}`}>
+          {h.generationAdvice.message}
+        </Notice>
+      ) : null}
       {series.data ? (
         <Suspense fallback={<Loading label="Drawing the chart…" />}>
           <ViabilityChart data={series.data} />
@@ -126,7 +172,9 @@ function Health({ c }: { c: CultureDetailDto }) {
       )}
       <details className="text-sm text-ink-muted">
         <summary className="cursor-pointer">How this is worked out</summary>
-        <p className="mt-1">Model: {h.model}. {h.source}</p>
+        <p className="mt-1">
+          Model: {h.model}. {h.source}
+        </p>
       </details>
     </Card>
   );
@@ -140,7 +188,15 @@ function numOrUndef(v: FormDataEntryValue | null) {
 }
 
 /** One form for every kind of log entry; only the fields of the chosen kind are shown. */
-function AddEntry({ c, correcting, onDone }: { c: CultureDetailDto; correcting?: CultureEventDto; onDone: () => void }) {
+function AddEntry({
+  c,
+  correcting,
+  onDone,
+}: {
+  c: CultureDetailDto;
+  correcting?: CultureEventDto;
+  onDone: () => void;
+}) {
   const add = useAddEventMutation(c.id);
   const [kind, setKind] = useState<string>(correcting?.kind ?? 'note');
   const d = (correcting?.data ?? {}) as Record<string, unknown>;
@@ -188,28 +244,76 @@ function AddEntry({ c, correcting, onDone }: { c: CultureDetailDto; correcting?:
     }
   };
   return (
-    <form onSubmit={submit} noValidate className="space-y-3 rounded-md border border-rule bg-paper p-4" aria-label={correcting ? 'Correct a log entry' : 'Add to the log'}>
+    <form
+      onSubmit={submit}
+      noValidate
+      className="space-y-3 rounded-md border border-rule bg-paper p-4"
+      aria-label={correcting ? 'Correct a log entry' : 'Add to the log'}
+    >
       {correcting ? (
         <Notice tone="info" word="Correcting">
-          {eventLabels[correcting.kind]} of {formatDateTime(correcting.occurredAt)}. The old entry stays in the log, marked as corrected.
+          {eventLabels[correcting.kind]} of {formatDateTime(correcting.occurredAt)}. The old entry stays in the log,
+          marked as corrected.
         </Notice>
       ) : (
         <Select label="What happened?" options={KIND_OPTIONS} value={kind} onChange={(e) => setKind(e.target.value)} />
       )}
       {kind === 'counted' ? (
         <>
-          <p className="text-sm text-ink-muted">Hemocytometer: medium squares (0.2 mm) of an improved Neubauer chamber. Include the stain in the dilution factor.</p>
+          <p className="text-sm text-ink-muted">
+            Hemocytometer: medium squares (0.2 mm) of an improved Neubauer chamber. Include the stain in the dilution
+            factor.
+          </p>
           <div className="grid grid-cols-3 gap-3">
-            <TextField label="Cells counted" name="cellsCounted" type="number" inputMode="numeric" defaultValue={d.cellsCounted as number | undefined} />
-            <TextField label="Squares" name="squaresCounted" type="number" inputMode="numeric" defaultValue={(d.squaresCounted as number | undefined) ?? 5} />
-            <TextField label="Dilution ×" name="dilution" type="number" inputMode="decimal" step="any" defaultValue={(d.dilution as number | undefined) ?? 100} />
+            <TextField
+              label="Cells counted"
+              name="cellsCounted"
+              type="number"
+              inputMode="numeric"
+              defaultValue={d.cellsCounted as number | undefined}
+            />
+            <TextField
+              label="Squares"
+              name="squaresCounted"
+              type="number"
+              inputMode="numeric"
+              defaultValue={(d.squaresCounted as number | undefined) ?? 5}
+            />
+            <TextField
+              label="Dilution ×"
+              name="dilution"
+              type="number"
+              inputMode="decimal"
+              step="any"
+              defaultValue={(d.dilution as number | undefined) ?? 100}
+            />
           </div>
           <p className="text-sm text-ink-muted">Stain (optional): cells left clear are alive, stained ones dead.</p>
           <div className="grid grid-cols-2 gap-3">
-            <TextField label="Live (clear)" name="live" type="number" inputMode="numeric" defaultValue={d.live as number | undefined} />
-            <TextField label="Dead (stained)" name="dead" type="number" inputMode="numeric" defaultValue={d.dead as number | undefined} />
+            <TextField
+              label="Live (clear)"
+              name="live"
+              type="number"
+              inputMode="numeric"
+              defaultValue={d.live as number | undefined}
+            />
+            <TextField
+              label="Dead (stained)"
+              name="dead"
+              type="number"
+              inputMode="numeric"
+              defaultValue={d.dead as number | undefined}
+            />
           </div>
-          <TextField label="Volume of the whole culture (mL, optional)" hint="Turns cells per mL into total cells." name="cultureVolumeMl" type="number" inputMode="decimal" step="any" defaultValue={(d.cultureVolumeMl as number | undefined) ?? c.amount.volumeMl} />
+          <TextField
+            label="Volume of the whole culture (mL, optional)"
+            hint="Turns cells per mL into total cells."
+            name="cultureVolumeMl"
+            type="number"
+            inputMode="decimal"
+            step="any"
+            defaultValue={(d.cultureVolumeMl as number | undefined) ?? c.amount.volumeMl}
+          />
         </>
       ) : null}
       {kind === 'fed' ? (
@@ -219,30 +323,56 @@ function AddEntry({ c, correcting, onDone }: { c: CultureDetailDto; correcting?:
             <TextField label="Gravity (SG or °P)" name="gravity" type="number" inputMode="decimal" step="any" />
             <TextField label="Temp (°C)" name="tempC" type="number" inputMode="decimal" step="any" />
           </div>
-          <p className="text-sm text-warn">Boiling wort scalds: cool it, covered, before feeding. Keep the vessel loosely covered so gas can escape.</p>
+          <p className="text-sm text-warn">
+            Boiling wort scalds: cool it, covered, before feeding. Keep the vessel loosely covered so gas can escape.
+          </p>
         </>
       ) : null}
       {kind === 'moved' ? (
         <div className="grid grid-cols-2 gap-3">
           <TextField label="New place" name="locationLabel" defaultValue={c.locationLabel} />
-          <TextField label="Kept at (°C)" name="storageTempC" type="number" inputMode="decimal" step="any" defaultValue={c.storageTempC} />
+          <TextField
+            label="Kept at (°C)"
+            name="storageTempC"
+            type="number"
+            inputMode="decimal"
+            step="any"
+            defaultValue={c.storageTempC}
+          />
         </div>
       ) : null}
       {kind === 'pitched' ? (
         <>
           <TextField label="Into batch" name="batchName" />
-          <label className="flex items-center gap-2"><input type="checkbox" name="usedUp" defaultChecked className="size-4 accent-accent" /> All of it went in</label>
+          <label className="flex items-center gap-2">
+            <input type="checkbox" name="usedUp" defaultChecked className="size-4 accent-accent" /> All of it went in
+          </label>
         </>
       ) : null}
       {kind === 'observation' ? (
-        <Select label="About its" name="aspect" options={[{ value: 'smell', label: 'Smell' }, { value: 'appearance', label: 'Look' }, { value: 'taste', label: 'Taste' }, { value: 'other', label: 'Other' }]} />
+        <Select
+          label="About its"
+          name="aspect"
+          options={[
+            { value: 'smell', label: 'Smell' },
+            { value: 'appearance', label: 'Look' },
+            { value: 'taste', label: 'Taste' },
+            { value: 'other', label: 'Other' },
+          ]}
+        />
       ) : null}
       <TextField label="When (leave empty for now)" name="occurredAt" type="datetime-local" />
       <TextField label="Notes" name="notes" defaultValue={correcting?.notes} />
       <FormAlert message={errorText(add.error)} />
       <div className="flex gap-2">
-        <Button type="submit" busy={add.isPending} busyLabel="Saving…">{correcting ? 'Save correction' : 'Add to the log'}</Button>
-        {correcting ? <Button variant="quiet" onClick={onDone}>Cancel</Button> : null}
+        <Button type="submit" busy={add.isPending} busyLabel="Saving…">
+          {correcting ? 'Save correction' : 'Add to the log'}
+        </Button>
+        {correcting ? (
+          <Button variant="quiet" onClick={onDone}>
+            Cancel
+          </Button>
+        ) : null}
       </div>
     </form>
   );
@@ -253,7 +383,9 @@ function describe(e: CultureEventDto): string | null {
   const r = d.result as { cellsPerMl?: number; viability?: number; warnings?: string[] } | undefined;
   switch (e.kind) {
     case 'counted':
-      return r ? `${formatCells(r.cellsPerMl ?? 0)} cells/mL${r.viability !== undefined ? `, ${pct(r.viability)} alive` : ''}` : null;
+      return r
+        ? `${formatCells(r.cellsPerMl ?? 0)} cells/mL${r.viability !== undefined ? `, ${pct(r.viability)} alive` : ''}`
+        : null;
     case 'fed':
       return `${d.volumeMl} mL of wort`;
     case 'moved':
@@ -277,26 +409,39 @@ function Log({ c }: { c: CultureDetailDto }) {
   return (
     <Card className="space-y-4">
       <h2 className="text-lg font-semibold">Handling log</h2>
-      {!events ? <Loading /> : (
+      {!events ? (
+        <Loading />
+      ) : (
         <ol className="space-y-3 border-l-2 border-rule pl-4">
           {[...events].reverse().map((e) => (
             <li key={e.id} className={cx('space-y-0.5', e.supersededByEventId && 'opacity-60')}>
               <p className="font-medium">
                 {eventLabels[e.kind]}
                 {e.supersedesEventId ? <span className="ml-2 text-sm text-ink-muted">(correction)</span> : null}
-                {e.supersededByEventId ? <span className="ml-2 text-sm text-ink-muted line-through">corrected</span> : null}
+                {e.supersededByEventId ? (
+                  <span className="ml-2 text-sm text-ink-muted line-through">corrected</span>
+                ) : null}
               </p>
-              <p className="text-sm text-ink-muted">{formatDateTime(e.occurredAt)}{e.author ? ` · ${e.author.name}` : ''}</p>
+              <p className="text-sm text-ink-muted">
+                {formatDateTime(e.occurredAt)}
+                {e.author ? ` · ${e.author.name}` : ''}
+              </p>
               {describe(e) ? <p className="num text-sm">{describe(e)}</p> : null}
               {e.notes ? <p className="text-sm">{e.notes}</p> : null}
               {CORRECTABLE_EVENT_KINDS.includes(e.kind) && !e.supersededByEventId && e.kind !== 'harvested' ? (
-                <Button variant="quiet" className="min-h-9 px-1 text-sm" onClick={() => setCorrecting(e)}>Correct</Button>
+                <Button variant="quiet" className="min-h-9 px-1 text-sm" onClick={() => setCorrecting(e)}>
+                  Correct
+                </Button>
               ) : null}
             </li>
           ))}
         </ol>
       )}
-      {correcting ? <AddEntry key={correcting.id} c={c} correcting={correcting} onDone={() => setCorrecting(undefined)} /> : <AddEntry c={c} onDone={() => undefined} />}
+      {correcting ? (
+        <AddEntry key={correcting.id} c={c} correcting={correcting} onDone={() => setCorrecting(undefined)} />
+      ) : (
+        <AddEntry c={c} onDone={() => undefined} />
+      )}
     </Card>
   );
 }
@@ -326,10 +471,24 @@ function Photos({ c }: { c: CultureDetailDto }) {
           {photos.map((p) => (
             <li key={p.id} className="space-y-1">
               <a href={p.webUrl} target="_blank" rel="noreferrer">
-                <img src={p.thumbUrl} alt={p.caption || 'Photo of the culture'} width={160} height={Math.round((160 * p.height) / p.width)} className="w-full rounded border border-rule" loading="lazy" />
+                <img
+                  src={p.thumbUrl}
+                  alt={p.caption || 'Photo of the culture'}
+                  width={160}
+                  height={Math.round((160 * p.height) / p.width)}
+                  className="w-full rounded border border-rule"
+                  loading="lazy"
+                />
               </a>
               <p className="text-sm text-ink-muted">{p.caption || formatDate(p.createdAt)}</p>
-              <Button variant="quiet" className="min-h-9 px-1 text-sm" icon={<Trash2 aria-hidden className="size-4" />} onClick={() => remove.mutate(p.id)}>Remove</Button>
+              <Button
+                variant="quiet"
+                className="min-h-9 px-1 text-sm"
+                icon={<Trash2 aria-hidden className="size-4" />}
+                onClick={() => remove.mutate(p.id)}
+              >
+                Remove
+              </Button>
             </li>
           ))}
         </ul>
@@ -337,10 +496,25 @@ function Photos({ c }: { c: CultureDetailDto }) {
         <p className="text-ink-muted">No photos yet. Sediment, krausen or a microscope field all help later.</p>
       )}
       <form onSubmit={submit} className="space-y-3" aria-label="Upload a photo">
-        <TextField label="Photo" name="photo" type="file" accept="image/*" capture="environment" hint="Up to 15 MB. Location and camera details are removed." />
+        <TextField
+          label="Photo"
+          name="photo"
+          type="file"
+          accept="image/*"
+          capture="environment"
+          hint="Up to 15 MB. Location and camera details are removed."
+        />
         <TextField label="Caption (optional)" name="caption" maxLength={200} />
         <FormAlert message={errorText(upload.error)} />
-        <Button type="submit" variant="secondary" icon={<Camera aria-hidden className="size-5" />} busy={upload.isPending} busyLabel="Uploading…">Upload</Button>
+        <Button
+          type="submit"
+          variant="secondary"
+          icon={<Camera aria-hidden className="size-5" />}
+          busy={upload.isPending}
+          busyLabel="Uploading…"
+        >
+          Upload
+        </Button>
       </form>
     </Card>
   );
@@ -354,31 +528,71 @@ function Quarantine({ c, onClose }: { c: CultureDetailDto; onClose: () => void }
   if (!preview.data) return <Loading label="Finding descendants…" />;
   const list = preview.data;
   return (
-    <div className="space-y-3 rounded-md border border-danger bg-danger-soft/40 p-4" role="region" aria-label="Confirm contamination">
+    <div
+      className="space-y-3 rounded-md border border-danger bg-danger-soft/40 p-4"
+      role="region"
+      aria-label="Confirm contamination"
+    >
       <p className="font-semibold">Confirm contamination of {c.strainName}</p>
-      <p className="text-sm">It will be quarantined. {list.length ? `These ${list.length} descendants are still in use; the ticked ones will be flagged as suspect:` : 'No descendant is still in use.'}</p>
+      <p className="text-sm">
+        It will be quarantined.{' '}
+        {list.length
+          ? `These ${list.length} descendants are still in use; the ticked ones will be flagged as suspect:`
+          : 'No descendant is still in use.'}
+      </p>
       {list.length ? (
         <ul className="max-h-64 space-y-1 overflow-y-auto">
           {list.map((d) => (
             <li key={d.id}>
               <label className="flex min-h-9 items-center gap-2">
-                <input type="checkbox" className="size-4 accent-danger" checked={!unchecked.has(d.id)} onChange={() => setUnchecked((s) => { const n = new Set(s); if (n.has(d.id)) n.delete(d.id); else n.add(d.id); return n; })} />
+                <input
+                  type="checkbox"
+                  className="size-4 accent-danger"
+                  checked={!unchecked.has(d.id)}
+                  onChange={() =>
+                    setUnchecked((s) => {
+                      const n = new Set(s);
+                      if (n.has(d.id)) n.delete(d.id);
+                      else n.add(d.id);
+                      return n;
+                    })
+                  }
+                />
                 <span style={{ paddingLeft: `${(d.depth - 1) * 12}px` }}>{d.strainName}</span>
-                <span className="num text-sm text-ink-muted">gen {d.generation} · {stateLabels[d.state]}</span>
+                <span className="num text-sm text-ink-muted">
+                  gen {d.generation} · {stateLabels[d.state]}
+                </span>
               </label>
             </li>
           ))}
         </ul>
       ) : null}
-      <p className="text-sm">Cultures grown from it that other people keep, through a club or a gift, are flagged as suspect too, and each of their keepers is told.</p>
+      <p className="text-sm">
+        Cultures grown from it that other people keep, through a club or a gift, are flagged as suspect too, and each of
+        their keepers is told.
+      </p>
       <TextField label="What did you see? (optional)" value={notes} onChange={(e) => setNotes(e.target.value)} />
-      <p className="text-sm text-ink-muted">Dispose of contaminated cultures as your local rules say; sanitise everything they touched.</p>
+      <p className="text-sm text-ink-muted">
+        Dispose of contaminated cultures as your local rules say; sanitise everything they touched.
+      </p>
       <FormAlert message={errorText(quarantine.error)} />
       <div className="flex gap-2">
-        <Button variant="danger" busy={quarantine.isPending} onClick={async () => { await quarantine.mutateAsync({ notes, flagDescendantIds: list.map((d) => d.id).filter((id) => !unchecked.has(id)) }); onClose(); }}>
+        <Button
+          variant="danger"
+          busy={quarantine.isPending}
+          onClick={async () => {
+            await quarantine.mutateAsync({
+              notes,
+              flagDescendantIds: list.map((d) => d.id).filter((id) => !unchecked.has(id)),
+            });
+            onClose();
+          }}
+        >
           Quarantine{list.length ? ` and flag ${list.length - unchecked.size}` : ''}
         </Button>
-        <Button variant="secondary" onClick={onClose}>Cancel</Button>
+        <Button variant="secondary" onClick={onClose}>
+          Cancel
+        </Button>
       </div>
     </div>
   );
@@ -397,33 +611,97 @@ function Actions({ c }: { c: CultureDetailDto }) {
       <h2 className="text-lg font-semibold">Actions</h2>
       {c.state !== 'discarded' ? (
         <div className="flex flex-wrap gap-2">
-          <ButtonLink to={`/cultures/new?parent=${c.id}`} variant="secondary" icon={<GitFork aria-hidden className="size-5" />}>Re-culture</ButtonLink>
-          <ButtonLink to={`/cultures/new?parent=${c.id}&origin=batch_slurry`} variant="secondary">Harvest from a batch</ButtonLink>
-          <ButtonLink to={`/cultures/${c.id}/lineage`} variant="secondary" icon={<Network aria-hidden className="size-5" />}>Lineage</ButtonLink>
+          <ButtonLink
+            to={`/cultures/new?parent=${c.id}`}
+            variant="secondary"
+            icon={<GitFork aria-hidden className="size-5" />}
+          >
+            Re-culture
+          </ButtonLink>
+          <ButtonLink to={`/cultures/new?parent=${c.id}&origin=batch_slurry`} variant="secondary">
+            Harvest from a batch
+          </ButtonLink>
+          <ButtonLink
+            to={`/cultures/${c.id}/lineage`}
+            variant="secondary"
+            icon={<Network aria-hidden className="size-5" />}
+          >
+            Lineage
+          </ButtonLink>
         </div>
       ) : (
-        <ButtonLink to={`/cultures/${c.id}/lineage`} variant="secondary" icon={<Network aria-hidden className="size-5" />}>Lineage</ButtonLink>
+        <ButtonLink
+          to={`/cultures/${c.id}/lineage`}
+          variant="secondary"
+          icon={<Network aria-hidden className="size-5" />}
+        >
+          Lineage
+        </ButtonLink>
       )}
       {c.state !== 'discarded' ? (
-        <form className="grid gap-3 sm:grid-cols-[1fr_auto] sm:items-end" onSubmit={(e) => { e.preventDefault(); change.mutate({ state }); }}>
-          <Select label="Change state to" value={state} onChange={(e) => setState(e.target.value as CultureState)} options={CULTURE_STATES.filter((s) => s !== c.state).map((s) => ({ value: s, label: stateLabels[s] }))} />
-          <Button type="submit" variant="secondary" busy={change.isPending}>Change</Button>
+        <form
+          className="grid gap-3 sm:grid-cols-[1fr_auto] sm:items-end"
+          onSubmit={(e) => {
+            e.preventDefault();
+            change.mutate({ state });
+          }}
+        >
+          <Select
+            label="Change state to"
+            value={state}
+            onChange={(e) => setState(e.target.value as CultureState)}
+            options={CULTURE_STATES.filter((s) => s !== c.state).map((s) => ({ value: s, label: stateLabels[s] }))}
+          />
+          <Button type="submit" variant="secondary" busy={change.isPending}>
+            Change
+          </Button>
         </form>
       ) : null}
       {c.suspect ? (
-        <Button variant="secondary" onClick={() => change.mutate({ state: c.state, clearSuspect: true })}>I checked it: lift the suspect flag</Button>
+        <Button variant="secondary" onClick={() => change.mutate({ state: c.state, clearSuspect: true })}>
+          I checked it: lift the suspect flag
+        </Button>
       ) : null}
       <FormAlert message={errorText(change.error)} />
       {kept ? (
-        <form className="grid gap-3 sm:grid-cols-[1fr_auto] sm:items-end" onSubmit={async (e) => { e.preventDefault(); try { const kids = await split.mutateAsync({ count: Number(parts) }); navigate(`/cultures/${kids[0]!.id}`); } catch { /* shown */ } }}>
-          <TextField label="Split into parts" type="number" inputMode="numeric" min={2} max={20} value={parts} onChange={(e) => setParts(e.target.value)} />
-          <Button type="submit" variant="secondary" busy={split.isPending}>Split</Button>
+        <form
+          className="grid gap-3 sm:grid-cols-[1fr_auto] sm:items-end"
+          onSubmit={async (e) => {
+            e.preventDefault();
+            try {
+              const kids = await split.mutateAsync({ count: Number(parts) });
+              navigate(`/cultures/${kids[0]!.id}`);
+            } catch {
+              /* shown */
+            }
+          }}
+        >
+          <TextField
+            label="Split into parts"
+            type="number"
+            inputMode="numeric"
+            min={2}
+            max={20}
+            value={parts}
+            onChange={(e) => setParts(e.target.value)}
+          />
+          <Button type="submit" variant="secondary" busy={split.isPending}>
+            Split
+          </Button>
         </form>
       ) : null}
       <FormAlert message={errorText(split.error)} />
       {c.state !== 'discarded' && c.state !== 'quarantined' ? (
-        quarantining ? <Quarantine c={c} onClose={() => setQuarantining(false)} /> : (
-          <Button variant="danger" icon={<ShieldAlert aria-hidden className="size-5" />} onClick={() => setQuarantining(true)}>Contamination confirmed…</Button>
+        quarantining ? (
+          <Quarantine c={c} onClose={() => setQuarantining(false)} />
+        ) : (
+          <Button
+            variant="danger"
+            icon={<ShieldAlert aria-hidden className="size-5" />}
+            onClick={() => setQuarantining(true)}
+          >
+            Contamination confirmed…
+          </Button>
         )
       ) : null}
     </Card>
@@ -435,8 +713,17 @@ export function Component() {
   const { data: c, isError, error } = useQuery(cultureQueries.detail(id));
   if (isError) {
     return (
-      <Notice tone="danger" title={isApiError(error) && error.status === 404 ? 'No culture of yours has this address' : 'Could not load this culture'}>
-        <Link to="/cultures" className="text-accent underline">Back to the library</Link>
+      <Notice
+        tone="danger"
+        title={
+          isApiError(error) && error.status === 404
+            ? 'No culture of yours has this address'
+            : 'Could not load this culture'
+        }
+      >
+        <Link to="/cultures" className="text-accent underline">
+          Back to the library
+        </Link>
       </Notice>
     );
   }
@@ -451,24 +738,57 @@ export function Component() {
       <div className="space-y-6">
         {c.suspect && c.suspectFrom ? (
           <Notice tone="danger" title="Suspected contamination" live="polite">
-            {c.suspectFrom.id === c.id ? 'You flagged this culture. ' : (
-              <>Contamination was confirmed in an ancestor, <Link className="underline" to={`/cultures/${c.suspectFrom.id}`}>{c.suspectFrom.strainName}</Link>, on {formatDate(c.suspectFrom.since)}. </>
+            {c.suspectFrom.id === c.id ? (
+              'You flagged this culture. '
+            ) : (
+              <>
+                Contamination was confirmed in an ancestor,{' '}
+                <Link className="underline" to={`/cultures/${c.suspectFrom.id}`}>
+                  {c.suspectFrom.strainName}
+                </Link>
+                , on {formatDate(c.suspectFrom.since)}.{' '}
+              </>
             )}
             Keep it apart and check it before you pitch it.
           </Notice>
         ) : null}
-        {c.warnings.filter((w) => !c.suspect || !/contamination/i.test(w)).map((w) => (
-          <Notice key={w} tone="warning"><span className="inline-flex items-start gap-1"><TriangleAlert aria-hidden className="mt-1 size-4 shrink-0" />{w}</span></Notice>
-        ))}
+        {c.warnings
+          .filter((w) => !c.suspect || !/contamination/i.test(w))
+          .map((w) => (
+            <Notice key={w} tone="warning">
+              <span className="inline-flex items-start gap-1">
+                <TriangleAlert aria-hidden className="mt-1 size-4 shrink-0" />
+                {w}
+              </span>
+            </Notice>
+          ))}
         <Card>
           <dl className="grid grid-cols-2 gap-4 sm:grid-cols-3">
             <Fact label="Origin">{originLabels[c.origin]}</Fact>
             <OriginFacts c={c} />
-            <Fact label={c.origin === 'purchased' ? 'Made on' : 'Harvested or made'}>{formatDate(c.madeAt)} (<span className="num">{c.ageDays}</span> d)</Fact>
-            <Fact label="Kept">{c.locationLabel ? `${c.locationLabel}, ` : ""}<span className="num">{c.storageTempC} °C</span></Fact>
-            {c.parentId ? <Fact label="Parent"><Link className="text-accent underline" to={`/cultures/${c.parentId}`}>open</Link></Fact> : null}
-            <Fact label="State since">{formatDateTime(c.stateChangedAt)}{c.stateChangedBy ? `, by ${c.stateChangedBy.name}` : ''}</Fact>
-            {c.species ? <Fact label="Species"><i>{c.species}</i></Fact> : null}
+            <Fact label={c.origin === 'purchased' ? 'Made on' : 'Harvested or made'}>
+              {formatDate(c.madeAt)} (<span className="num">{c.ageDays}</span> d)
+            </Fact>
+            <Fact label="Kept">
+              {c.locationLabel ? `${c.locationLabel}, ` : ''}
+              <span className="num">{c.storageTempC} °C</span>
+            </Fact>
+            {c.parentId ? (
+              <Fact label="Parent">
+                <Link className="text-accent underline" to={`/cultures/${c.parentId}`}>
+                  open
+                </Link>
+              </Fact>
+            ) : null}
+            <Fact label="State since">
+              {formatDateTime(c.stateChangedAt)}
+              {c.stateChangedBy ? `, by ${c.stateChangedBy.name}` : ''}
+            </Fact>
+            {c.species ? (
+              <Fact label="Species">
+                <i>{c.species}</i>
+              </Fact>
+            ) : null}
             {c.tags.length ? <Fact label="Tags">{c.tags.join(', ')}</Fact> : null}
           </dl>
           {c.notes ? <p className="mt-4 whitespace-pre-line">{c.notes}</p> : null}

@@ -13,7 +13,18 @@ import { CULTURE_FORMS, CULTURE_STATES, type CultureSummaryDto } from '@barmkeep
 import { cultureQueries, type CultureListFilters } from '../../api/cultures/queries';
 import { useImportBackupMutation } from '../../api/cultures/mutations';
 import { isApiError } from '../../api/client';
-import { Button, ButtonLink, EmptyState, Loading, Notice, PageHeader, Select, TextField, buttonClasses, cx } from '../../components';
+import {
+  Button,
+  ButtonLink,
+  EmptyState,
+  Loading,
+  Notice,
+  PageHeader,
+  Select,
+  TextField,
+  buttonClasses,
+  cx,
+} from '../../components';
 import { attentionText, formLabels, pct, stateLabels } from '../../lib/cultureLabels';
 
 /** Table column → the API's sort key. Age sorts by the made date, the other way round. */
@@ -34,7 +45,10 @@ const columns = [
     header: 'Strain',
     cell: (info) => (
       <span className="flex flex-col">
-        <Link to={`/cultures/${info.row.original.id}`} className="font-medium text-accent underline-offset-4 hover:underline">
+        <Link
+          to={`/cultures/${info.row.original.id}`}
+          className="font-medium text-accent underline-offset-4 hover:underline"
+        >
           {info.getValue()}
         </Link>
         <span className="text-sm text-ink-muted">
@@ -51,12 +65,23 @@ const columns = [
   }),
   col.accessor('form', { header: 'Form', cell: (i) => formLabels[i.getValue()], meta: { wide: true } }),
   col.accessor('state', { header: 'State', cell: (i) => stateLabels[i.getValue()], meta: { wide: true } }),
-  col.accessor('generation', { header: 'Gen', cell: (i) => <span className="num">{i.getValue()}</span>, meta: { wide: true } }),
-  col.accessor('ageDays', { header: 'Age', cell: (i) => <span className="num">{i.getValue()} d</span>, meta: { wide: true } }),
+  col.accessor('generation', {
+    header: 'Gen',
+    cell: (i) => <span className="num">{i.getValue()}</span>,
+    meta: { wide: true },
+  }),
+  col.accessor('ageDays', {
+    header: 'Age',
+    cell: (i) => <span className="num">{i.getValue()} d</span>,
+    meta: { wide: true },
+  }),
   col.accessor('projectedViability', {
     header: 'Viability',
     cell: (i) => (
-      <span className="num" title={i.row.original.viabilityBasis === 'measured' ? 'from a stain count' : 'projected from the form and age'}>
+      <span
+        className="num"
+        title={i.row.original.viabilityBasis === 'measured' ? 'from a stain count' : 'projected from the form and age'}
+      >
         {pct(i.getValue())}
         {i.row.original.viabilityBasis === 'model' ? <span className="text-ink-faint">*</span> : null}
       </span>
@@ -66,7 +91,13 @@ const columns = [
     header: 'Attention',
     cell: (i) => {
       const d = i.getValue();
-      return <span className={cx('num', d !== null && d <= 3 && 'font-semibold text-warn', d !== null && d < 0 && 'text-danger')}>{attentionText(d)}</span>;
+      return (
+        <span
+          className={cx('num', d !== null && d <= 3 && 'font-semibold text-warn', d !== null && d < 0 && 'text-danger')}
+        >
+          {attentionText(d)}
+        </span>
+      );
     },
   }),
 ];
@@ -107,22 +138,40 @@ function ExportAndBackup() {
         </div>
         <p className="text-sm text-ink-muted">The backup holds every culture and log entry, not the photos.</p>
         <form onSubmit={onImport} className="space-y-3" aria-label="Import a backup">
-          <TextField label="Import a backup file" name="file" type="file" accept="application/json,.json" hint="Everything in the file is added as new cultures, or nothing is if any row is wrong." />
-          <Button type="submit" variant="secondary" icon={<Upload aria-hidden className="size-5" />} busy={importBackup.isPending} busyLabel="Importing…">
+          <TextField
+            label="Import a backup file"
+            name="file"
+            type="file"
+            accept="application/json,.json"
+            hint="Everything in the file is added as new cultures, or nothing is if any row is wrong."
+          />
+          <Button
+            type="submit"
+            variant="secondary"
+            icon={<Upload aria-hidden className="size-5" />}
+            busy={importBackup.isPending}
+            busyLabel="Importing…"
+          >
             Import
           </Button>
         </form>
         {importBackup.isSuccess ? (
-          <Notice tone="success" live="polite">Imported {importBackup.data.cultures} cultures and {importBackup.data.events} log entries.</Notice>
+          <Notice tone="success" live="polite">
+            Imported {importBackup.data.cultures} cultures and {importBackup.data.events} log entries.
+          </Notice>
         ) : null}
         {err ? (
           <Notice tone="danger" live="assertive" title="Nothing was imported">
             <p>{err.message}</p>
             {isApiError(err) && err.hasFieldErrors ? (
               <ul className="mt-1 list-disc pl-5 text-sm">
-                {Object.entries(err.fields).slice(0, 20).map(([where, msgs]) => (
-                  <li key={where}><span className="num">{where}</span>: {msgs.join(' ')}</li>
-                ))}
+                {Object.entries(err.fields)
+                  .slice(0, 20)
+                  .map(([where, msgs]) => (
+                    <li key={where}>
+                      <span className="num">{where}</span>: {msgs.join(' ')}
+                    </li>
+                  ))}
               </ul>
             ) : null}
           </Notice>
@@ -186,34 +235,58 @@ export function CultureLibrary() {
   });
 
   const pages = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
-  const anyFilter = Boolean(filters.q || filters.state || filters.form || filters.maxAgeDays !== undefined || filters.viabilityMaxPct !== undefined);
+  const anyFilter = Boolean(
+    filters.q ||
+    filters.state ||
+    filters.form ||
+    filters.maxAgeDays !== undefined ||
+    filters.viabilityMaxPct !== undefined,
+  );
 
   const onSearch = (e: FormEvent) => {
     e.preventDefault();
     update({ q: search.trim() || undefined });
   };
 
-  if (isError) return <Notice tone="danger" title="Could not load your cultures">{error.message}</Notice>;
+  if (isError)
+    return (
+      <Notice tone="danger" title="Could not load your cultures">
+        {error.message}
+      </Notice>
+    );
   if (isPending) return <Loading label="Loading your cultures…" />;
 
   return (
     <div className="space-y-4">
       <form onSubmit={onSearch} role="search" className="grid gap-3 sm:grid-cols-[1fr_auto] sm:items-end">
-        <TextField label="Search" placeholder="Strain, place, tag or note" value={search} onChange={(e) => setSearch(e.target.value)} />
-        <Button type="submit" variant="secondary">Search</Button>
+        <TextField
+          label="Search"
+          placeholder="Strain, place, tag or note"
+          value={search}
+          onChange={(e) => setSearch(e.target.value)}
+        />
+        <Button type="submit" variant="secondary">
+          Search
+        </Button>
       </form>
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
         <Select
           label="State"
           value={filters.state ?? ''}
           onChange={(e) => update({ state: e.target.value || undefined })}
-          options={[{ value: '', label: 'Any state' }, ...CULTURE_STATES.map((s) => ({ value: s, label: stateLabels[s] }))]}
+          options={[
+            { value: '', label: 'Any state' },
+            ...CULTURE_STATES.map((s) => ({ value: s, label: stateLabels[s] })),
+          ]}
         />
         <Select
           label="Form"
           value={filters.form ?? ''}
           onChange={(e) => update({ form: e.target.value || undefined })}
-          options={[{ value: '', label: 'Any form' }, ...CULTURE_FORMS.map((f) => ({ value: f, label: formLabels[f] }))]}
+          options={[
+            { value: '', label: 'Any form' },
+            ...CULTURE_FORMS.map((f) => ({ value: f, label: formLabels[f] })),
+          ]}
         />
         <Select
           label="Age"
@@ -245,7 +318,9 @@ export function CultureLibrary() {
         </EmptyState>
       ) : (
         <>
-          <div className={cx('overflow-x-auto rounded-lg border border-rule bg-paper-raised', isFetching && 'opacity-70')}>
+          <div
+            className={cx('overflow-x-auto rounded-lg border border-rule bg-paper-raised', isFetching && 'opacity-70')}
+          >
             <table className="w-full text-left">
               <caption className="sr-only">Your cultures, {data.total} in all</caption>
               <thead className="border-b border-rule bg-paper-sunk/60 text-sm">
@@ -261,9 +336,19 @@ export function CultureLibrary() {
                           aria-sort={sorted ? (sorted === 'desc' ? 'descending' : 'ascending') : undefined}
                           className={cx('px-3 py-2 font-medium whitespace-nowrap', wide && 'hidden md:table-cell')}
                         >
-                          <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-9 items-center gap-1 hover:text-accent">
+                          <button
+                            type="button"
+                            onClick={h.column.getToggleSortingHandler()}
+                            className="inline-flex min-h-9 items-center gap-1 hover:text-accent"
+                          >
                             {flexRender(h.column.columnDef.header, h.getContext())}
-                            {sorted === 'asc' ? <ArrowUp aria-hidden className="size-3.5" /> : sorted === 'desc' ? <ArrowDown aria-hidden className="size-3.5" /> : <ArrowUpDown aria-hidden className="size-3.5 text-ink-faint" />}
+                            {sorted === 'asc' ? (
+                              <ArrowUp aria-hidden className="size-3.5" />
+                            ) : sorted === 'desc' ? (
+                              <ArrowDown aria-hidden className="size-3.5" />
+                            ) : (
+                              <ArrowUpDown aria-hidden className="size-3.5 text-ink-faint" />
+                            )}
                           </button>
                         </th>
                       );
@@ -289,13 +374,22 @@ export function CultureLibrary() {
           </div>
           <p className="text-sm text-ink-muted">* projected from the form and age, not measured.</p>
           <nav aria-label="Pages" className="flex items-center justify-between gap-3">
-            <Button variant="secondary" disabled={filters.page! <= 1} onClick={() => update({ page: String(filters.page! - 1) })}>
+            <Button
+              variant="secondary"
+              disabled={filters.page! <= 1}
+              onClick={() => update({ page: String(filters.page! - 1) })}
+            >
               Previous
             </Button>
             <span className="text-sm text-ink-muted">
-              Page <span className="num">{filters.page}</span> of <span className="num">{pages}</span> · <span className="num">{data.total}</span> cultures
+              Page <span className="num">{filters.page}</span> of <span className="num">{pages}</span> ·{' '}
+              <span className="num">{data.total}</span> cultures
             </span>
-            <Button variant="secondary" disabled={filters.page! >= pages} onClick={() => update({ page: String(filters.page! + 1) })}>
+            <Button
+              variant="secondary"
+              disabled={filters.page! >= pages}
+              onClick={() => update({ page: String(filters.page! + 1) })}
+            >
               Next
             </Button>
           </nav>
@@ -325,4 +419,3 @@ export function Component() {
     </>
   );
 }
-

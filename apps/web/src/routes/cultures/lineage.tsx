@@ -17,7 +17,12 @@ export const COLLAPSE_ABOVE = 200;
 function initialCollapsed(root: HierarchyNode<LineageNodeDto>, focusId: string): Set<string> {
   const collapsed = new Set<string>();
   if (root.descendants().length <= COLLAPSE_ABOVE) return collapsed;
-  const keepOpen = new Set(root.find((n) => n.data.id === focusId)?.ancestors().map((a) => a.data.id) ?? []);
+  const keepOpen = new Set(
+    root
+      .find((n) => n.data.id === focusId)
+      ?.ancestors()
+      .map((a) => a.data.id) ?? [],
+  );
   // open the first two levels, then fold every branch off the path to the focus
   root.each((n) => {
     if (n.depth >= 2 && n.children && !keepOpen.has(n.data.id)) collapsed.add(n.data.id);
@@ -37,7 +42,10 @@ export function Component() {
       .parentId((d) => d.parentId)(data.nodes);
   }, [data]);
   const [collapsed, setCollapsed] = useState<Set<string> | null>(null);
-  const folded = useMemo(() => collapsed ?? (root && data ? initialCollapsed(root, data.focusId) : new Set<string>()), [collapsed, root, data]);
+  const folded = useMemo(
+    () => collapsed ?? (root && data ? initialCollapsed(root, data.focusId) : new Set<string>()),
+    [collapsed, root, data],
+  );
 
   const layout = useMemo(() => {
     if (!root) return null;
@@ -75,7 +83,12 @@ export function Component() {
     el.scrollLeft = Math.max(0, focusPoint.left - el.clientWidth / 3);
   }, [focusPoint]);
 
-  if (isError) return <Notice tone="danger" title="Could not load the lineage">{error.message}</Notice>;
+  if (isError)
+    return (
+      <Notice tone="danger" title="Could not load the lineage">
+        {error.message}
+      </Notice>
+    );
   if (!data || !layout || !root) return <Loading label="Tracing the lineage…" />;
 
   const toggle = (nodeId: string) => {
@@ -95,13 +108,27 @@ export function Component() {
         description={`${data.nodes.length} cultures from the founding one down${focus?.strainName ? `, around ${focus.strainName}` : ''}.`}
         actions={
           <>
-            <Button variant="secondary" onClick={() => setCollapsed(new Set())}>Open all</Button>
-            <Link to={`/cultures/${data.focusId}`} className="inline-flex min-h-11 items-center px-2 text-accent underline">Back to the culture</Link>
+            <Button variant="secondary" onClick={() => setCollapsed(new Set())}>
+              Open all
+            </Button>
+            <Link
+              to={`/cultures/${data.focusId}`}
+              className="inline-flex min-h-11 items-center px-2 text-accent underline"
+            >
+              Back to the culture
+            </Link>
           </>
         }
       />
-      <p className="mb-3 text-sm text-ink-muted">Each box: name, generation and state. A red edge marks a suspect or quarantined culture. Tap a box to open it; tap “+n” to unfold a branch.</p>
-      <div ref={scroller} className="overflow-auto rounded-lg border border-rule bg-paper-raised" style={{ maxHeight: '70vh' }}>
+      <p className="mb-3 text-sm text-ink-muted">
+        Each box: name, generation and state. A red edge marks a suspect or quarantined culture. Tap a box to open it;
+        tap “+n” to unfold a branch.
+      </p>
+      <div
+        ref={scroller}
+        className="overflow-auto rounded-lg border border-rule bg-paper-raised"
+        style={{ maxHeight: '70vh' }}
+      >
         <svg width={layout.width} height={layout.height} role="tree" aria-label="Lineage tree">
           <g transform={`translate(10, ${-layout.minX + ROW})`}>
             {layout.laid.links().map((l) => (
@@ -117,38 +144,76 @@ export function Component() {
               const isFocus = d.id === data.focusId;
               const danger = d.suspect || d.state === 'quarantined';
               return (
-                <g key={d.id} transform={`translate(${n.y}, ${n.x - NODE_H / 2})`} role="treeitem" aria-level={n.depth + 1} aria-selected={isFocus}>
+                <g
+                  key={d.id}
+                  transform={`translate(${n.y}, ${n.x - NODE_H / 2})`}
+                  role="treeitem"
+                  aria-level={n.depth + 1}
+                  aria-selected={isFocus}
+                >
                   {d.visible && !d.openable ? (
                     <PathNode d={d} danger={danger} isFocus={isFocus} />
                   ) : d.visible ? (
-                    <a href={`/cultures/${d.id}`} onClick={(e) => { e.preventDefault(); navigate(`/cultures/${d.id}`); }}>
+                    <a
+                      href={`/cultures/${d.id}`}
+                      onClick={(e) => {
+                        e.preventDefault();
+                        navigate(`/cultures/${d.id}`);
+                      }}
+                    >
                       <rect
                         width={NODE_W}
                         height={NODE_H}
                         rx={5}
                         fill={isFocus ? 'var(--color-accent-soft)' : 'var(--color-paper)'}
-                        stroke={danger ? 'var(--color-danger)' : isFocus ? 'var(--color-accent)' : 'var(--color-rule-strong)'}
+                        stroke={
+                          danger ? 'var(--color-danger)' : isFocus ? 'var(--color-accent)' : 'var(--color-rule-strong)'
+                        }
                         strokeWidth={danger || isFocus ? 2 : 1}
                       />
                       <text x={7} y={15} fontSize={12} fontWeight={600} fill="var(--color-ink)">
-                        {(d.strainName ?? '').slice(0, 24)}{(d.strainName ?? '').length > 24 ? '…' : ''}
+                        {(d.strainName ?? '').slice(0, 24)}
+                        {(d.strainName ?? '').length > 24 ? '…' : ''}
                       </text>
                       <text x={7} y={30} fontSize={11} fill={danger ? 'var(--color-danger)' : 'var(--color-ink-muted)'}>
-                        gen {d.generation} · {d.state ? stateLabels[d.state] : ''}{d.suspect ? ' · suspect' : ''}
+                        gen {d.generation} · {d.state ? stateLabels[d.state] : ''}
+                        {d.suspect ? ' · suspect' : ''}
                       </text>
                       <title>{`${d.strainName} — generation ${d.generation}, ${d.state ? stateLabels[d.state] : ''}${d.owner ? `, kept by ${d.owner.name}` : ''}${d.suspect ? ', suspect' : ''}`}</title>
                     </a>
                   ) : (
                     <>
-                      <rect width={NODE_W} height={NODE_H} rx={5} fill="var(--color-paper-sunk)" stroke="var(--color-rule)" />
-                      <text x={7} y={23} fontSize={12} fill="var(--color-ink-faint)">not shared with you</text>
+                      <rect
+                        width={NODE_W}
+                        height={NODE_H}
+                        rx={5}
+                        fill="var(--color-paper-sunk)"
+                        stroke="var(--color-rule)"
+                      />
+                      <text x={7} y={23} fontSize={12} fill="var(--color-ink-faint)">
+                        not shared with you
+                      </text>
                     </>
                   )}
                   {n.hidden ? (
-                      <g transform={`translate(${NODE_W + 4}, 9)`} className="cursor-pointer" onClick={() => toggle(d.id)} role="button" aria-label={`Unfold ${n.hidden} below`}>
-                        <rect width={36} height={20} rx={10} fill="var(--color-paper-sunk)" stroke="var(--color-rule-strong)" />
-                        <text x={18} y={14} fontSize={11} textAnchor="middle" fill="var(--color-ink)">+{n.hidden}</text>
-                      </g>
+                    <g
+                      transform={`translate(${NODE_W + 4}, 9)`}
+                      className="cursor-pointer"
+                      onClick={() => toggle(d.id)}
+                      role="button"
+                      aria-label={`Unfold ${n.hidden} below`}
+                    >
+                      <rect
+                        width={36}
+                        height={20}
+                        rx={10}
+                        fill="var(--color-paper-sunk)"
+                        stroke="var(--color-rule-strong)"
+                      />
+                      <text x={18} y={14} fontSize={11} textAnchor="middle" fill="var(--color-ink)">
+                        +{n.hidden}
+                      </text>
+                    </g>
                   ) : null}
                 </g>
               );
@@ -176,10 +241,12 @@ function PathNode({ d, danger, isFocus }: { d: LineageNodeDto; danger: boolean; 
         strokeDasharray="4 3"
       />
       <text x={7} y={15} fontSize={12} fontWeight={600} fill="var(--color-ink)">
-        {(d.strainName ?? '').slice(0, 24)}{(d.strainName ?? '').length > 24 ? '…' : ''}
+        {(d.strainName ?? '').slice(0, 24)}
+        {(d.strainName ?? '').length > 24 ? '…' : ''}
       </text>
       <text x={7} y={30} fontSize={11} fill={danger ? 'var(--color-danger)' : 'var(--color-ink-muted)'}>
-        gen {d.generation} · {keeper.slice(0, 18)}{d.suspect ? ' · suspect' : ''}
+        gen {d.generation} · {keeper.slice(0, 18)}
+        {d.suspect ? ' · suspect' : ''}
       </text>
       <title>{`${d.strainName} — generation ${d.generation}, kept by ${keeper}${d.suspect ? ', suspect' : ''}. Only its keeper can open it.`}</title>
     </g>
@@ -216,8 +283,8 @@ function KeepersOf({ nodes }: { nodes: LineageNodeDto[] }) {
         ) : null}
       </ul>
       <p className="mt-1 text-ink-muted">
-        Dashed boxes are fellow club members’ cultures: you see the strain’s path and who keeps it; their notes and photos
-        stay theirs.
+        Dashed boxes are fellow club members’ cultures: you see the strain’s path and who keeps it; their notes and
+        photos stay theirs.
       </p>
     </section>
   );

@@ -74,13 +74,20 @@ function DregsGuide() {
       </ol>
       <Notice tone="warning" title="Take care">
         <ul className="list-disc space-y-1 pl-5">
-          <li>Never mix sanitisers or cleaners: chlorine bleach with acid or ammonia products gives off toxic gas. Wear gloves and eye protection as the label says.</li>
-          <li>Growing yeast makes gas. A sealed jar or bottle can build pressure and burst; keep it loosely covered.</li>
+          <li>
+            Never mix sanitisers or cleaners: chlorine bleach with acid or ammonia products gives off toxic gas. Wear
+            gloves and eye protection as the label says.
+          </li>
+          <li>
+            Growing yeast makes gas. A sealed jar or bottle can build pressure and burst; keep it loosely covered.
+          </li>
           <li>Boiling wort scalds. Let it cool, covered, before it meets the yeast.</li>
           <li>Your local rules and the product’s label come first.</li>
         </ul>
       </Notice>
-      <p className="text-sm text-ink-muted">Sediment from pasteurized beer is dead and will not grow; the label or the brewer can tell you.</p>
+      <p className="text-sm text-ink-muted">
+        Sediment from pasteurized beer is dead and will not grow; the label or the brewer can tell you.
+      </p>
     </Card>
   );
 }
@@ -118,7 +125,8 @@ export function Component() {
     resolver: zodResolver(CultureCreateSchema),
     defaultValues: {
       origin: { origin: initialOrigin } as CultureCreateInput['origin'],
-      form: initialOrigin === 'batch_slurry' ? 'slurry_unwashed' : initialOrigin === 'reculture' ? 'slant' : 'bottle_dregs',
+      form:
+        initialOrigin === 'batch_slurry' ? 'slurry_unwashed' : initialOrigin === 'reculture' ? 'slant' : 'bottle_dregs',
       storageTempC: 4,
       madeAt: today(),
       state: 'stored',
@@ -141,7 +149,8 @@ export function Component() {
   useEffect(() => {
     const allowed = FORMS_FOR[origin] ?? CULTURE_FORMS;
     if (!allowed.includes(form)) setValue('form', allowed[0]!);
-    if (origin === 'batch_slurry' && washed !== undefined) setValue('form', washed ? 'slurry_washed' : 'slurry_unwashed');
+    if (origin === 'batch_slurry' && washed !== undefined)
+      setValue('form', washed ? 'slurry_washed' : 'slurry_unwashed');
   }, [origin, form, washed, setValue]);
 
   const err = (path: string) => {
@@ -161,30 +170,64 @@ export function Component() {
       });
       navigate(`/cultures/${culture.id}`);
     } catch (error) {
-      applyApiError(error, setError as never, [
-        'strainName', 'species', 'form', 'storageTempC', 'madeAt', 'parentId', 'generation', 'locationLabel', 'notes',
-        'amount.volumeMl', 'amount.packs', 'amount.grams', 'origin.beerName', 'origin.bottleCount', 'origin.pasteurized',
-        'origin.bottledOn', 'origin.maker', 'origin.lot', 'origin.manufacturedOn', 'origin.bestBy', 'origin.batchName',
-        'origin.crop', 'origin.washed', 'origin.fromName',
-      ] as never);
+      applyApiError(
+        error,
+        setError as never,
+        [
+          'strainName',
+          'species',
+          'form',
+          'storageTempC',
+          'madeAt',
+          'parentId',
+          'generation',
+          'locationLabel',
+          'notes',
+          'amount.volumeMl',
+          'amount.packs',
+          'amount.grams',
+          'origin.beerName',
+          'origin.bottleCount',
+          'origin.pasteurized',
+          'origin.bottledOn',
+          'origin.maker',
+          'origin.lot',
+          'origin.manufacturedOn',
+          'origin.bestBy',
+          'origin.batchName',
+          'origin.crop',
+          'origin.washed',
+          'origin.fromName',
+        ] as never,
+      );
     }
   });
 
-  const originOptions = (parentId ? (['reculture', 'batch_slurry', 'gift'] as const) : (['bottle_dregs', 'purchased', 'batch_slurry', 'gift'] as const)).map(
-    (o) => ({ value: o, label: originLabels[o] }),
-  );
+  const originOptions = (
+    parentId
+      ? (['reculture', 'batch_slurry', 'gift'] as const)
+      : (['bottle_dregs', 'purchased', 'batch_slurry', 'gift'] as const)
+  ).map((o) => ({ value: o, label: originLabels[o] }));
 
   return (
     <>
       <title>Add a culture · Barmkeep</title>
-      <PageHeader title={parentId ? 'Grow a new culture from this one' : 'Add a culture'} description="Where it came from, what it is in, and where you keep it." />
+      <PageHeader
+        title={parentId ? 'Grow a new culture from this one' : 'Add a culture'}
+        description="Where it came from, what it is in, and where you keep it."
+      />
       <form onSubmit={onSubmit} noValidate className="space-y-6">
         <FormAlert message={errors.root?.server?.message} />
         {parentId ? <ParentSummary parentId={parentId} /> : null}
         <FormAlert message={err('parentId')} />
 
         <Card className="space-y-4">
-          <RadioGroup legend="Where did it come from?" options={originOptions} error={err('origin.origin')} {...register('origin.origin')} />
+          <RadioGroup
+            legend="Where did it come from?"
+            options={originOptions}
+            error={err('origin.origin')}
+            {...register('origin.origin')}
+          />
         </Card>
 
         {origin === 'bottle_dregs' ? <DregsGuide /> : null}
@@ -193,9 +236,28 @@ export function Component() {
           <h2 className="text-lg font-semibold">Origin</h2>
           {origin === 'bottle_dregs' ? (
             <>
-              <TextField label="Beer the sediment came from" maxLength={cultureLimits.labelMax} error={err('origin.beerName')} {...register('origin.beerName' as never)} />
-              <TextField label="Brewed by (optional)" maxLength={cultureLimits.labelMax} error={err('origin.brewedBy')} {...register('origin.brewedBy' as never, optText)} />
-              <TextField label="Bottles pooled" type="number" inputMode="numeric" min={1} max={cultureLimits.bottlesMax} defaultValue={1} error={err('origin.bottleCount')} {...register('origin.bottleCount' as never, num)} />
+              <TextField
+                label="Beer the sediment came from"
+                maxLength={cultureLimits.labelMax}
+                error={err('origin.beerName')}
+                {...register('origin.beerName' as never)}
+              />
+              <TextField
+                label="Brewed by (optional)"
+                maxLength={cultureLimits.labelMax}
+                error={err('origin.brewedBy')}
+                {...register('origin.brewedBy' as never, optText)}
+              />
+              <TextField
+                label="Bottles pooled"
+                type="number"
+                inputMode="numeric"
+                min={1}
+                max={cultureLimits.bottlesMax}
+                defaultValue={1}
+                error={err('origin.bottleCount')}
+                {...register('origin.bottleCount' as never, num)}
+              />
               <RadioGroup
                 legend="Was the beer pasteurized?"
                 options={[
@@ -206,34 +268,87 @@ export function Component() {
                 error={err('origin.pasteurized')}
                 {...register('origin.pasteurized' as never)}
               />
-              <TextField label="Bottled on (optional)" type="date" error={err('origin.bottledOn')} {...register('origin.bottledOn' as never, optText)} />
+              <TextField
+                label="Bottled on (optional)"
+                type="date"
+                error={err('origin.bottledOn')}
+                {...register('origin.bottledOn' as never, optText)}
+              />
             </>
           ) : null}
           {origin === 'purchased' ? (
             <>
-              <TextField label="Maker" maxLength={cultureLimits.labelMax} error={err('origin.maker')} {...register('origin.maker' as never)} />
-              <TextField label="Product code (optional)" maxLength={cultureLimits.lotMax} error={err('origin.productCode')} {...register('origin.productCode' as never, optText)} />
-              <TextField label="Lot (optional)" maxLength={cultureLimits.lotMax} error={err('origin.lot')} {...register('origin.lot' as never, optText)} />
+              <TextField
+                label="Maker"
+                maxLength={cultureLimits.labelMax}
+                error={err('origin.maker')}
+                {...register('origin.maker' as never)}
+              />
+              <TextField
+                label="Product code (optional)"
+                maxLength={cultureLimits.lotMax}
+                error={err('origin.productCode')}
+                {...register('origin.productCode' as never, optText)}
+              />
+              <TextField
+                label="Lot (optional)"
+                maxLength={cultureLimits.lotMax}
+                error={err('origin.lot')}
+                {...register('origin.lot' as never, optText)}
+              />
               <div className="grid gap-4 sm:grid-cols-2">
-                <TextField label="Manufactured on (optional)" type="date" error={err('origin.manufacturedOn')} {...register('origin.manufacturedOn' as never, optText)} />
-                <TextField label="Best by (optional)" type="date" error={err('origin.bestBy')} {...register('origin.bestBy' as never, optText)} />
+                <TextField
+                  label="Manufactured on (optional)"
+                  type="date"
+                  error={err('origin.manufacturedOn')}
+                  {...register('origin.manufacturedOn' as never, optText)}
+                />
+                <TextField
+                  label="Best by (optional)"
+                  type="date"
+                  error={err('origin.bestBy')}
+                  {...register('origin.bestBy' as never, optText)}
+                />
               </div>
             </>
           ) : null}
           {origin === 'batch_slurry' ? (
             <>
-              <TextField label="Batch it was cropped from" maxLength={cultureLimits.labelMax} error={err('origin.batchName')} {...register('origin.batchName' as never)} />
-              <RadioGroup legend="Cropped from" options={[{ value: 'bottom', label: 'Bottom (after fermentation)' }, { value: 'top', label: 'Top (krausen)' }]} error={err('origin.crop')} {...register('origin.crop' as never)} />
+              <TextField
+                label="Batch it was cropped from"
+                maxLength={cultureLimits.labelMax}
+                error={err('origin.batchName')}
+                {...register('origin.batchName' as never)}
+              />
+              <RadioGroup
+                legend="Cropped from"
+                options={[
+                  { value: 'bottom', label: 'Bottom (after fermentation)' },
+                  { value: 'top', label: 'Top (krausen)' },
+                ]}
+                error={err('origin.crop')}
+                {...register('origin.crop' as never)}
+              />
               <RadioGroup
                 legend="Washed?"
-                options={[{ value: 'false', label: 'No, under beer' }, { value: 'true', label: 'Yes, rinsed with boiled, cooled water' }]}
+                options={[
+                  { value: 'false', label: 'No, under beer' },
+                  { value: 'true', label: 'Yes, rinsed with boiled, cooled water' },
+                ]}
                 error={err('origin.washed')}
-                {...register('origin.washed' as never, { setValueAs: (v: unknown) => (v === 'true' ? true : v === 'false' ? false : v) })}
+                {...register('origin.washed' as never, {
+                  setValueAs: (v: unknown) => (v === 'true' ? true : v === 'false' ? false : v),
+                })}
               />
             </>
           ) : null}
           {origin === 'gift' ? (
-            <TextField label="Given by" maxLength={cultureLimits.labelMax} error={err('origin.fromName')} {...register('origin.fromName' as never)} />
+            <TextField
+              label="Given by"
+              maxLength={cultureLimits.labelMax}
+              error={err('origin.fromName')}
+              {...register('origin.fromName' as never)}
+            />
           ) : null}
           {origin === 'reculture' ? (
             <Select
@@ -252,8 +367,20 @@ export function Component() {
 
         <Card className="space-y-4">
           <h2 className="text-lg font-semibold">The culture</h2>
-          <TextField label="Strain name" hint="Your own name for it is fine." maxLength={cultureLimits.strainMax} error={err('strainName')} {...register('strainName')} />
-          <TextField label="Species (optional)" list="species-suggestions" maxLength={cultureLimits.speciesMax} error={err('species')} {...register('species', optText)} />
+          <TextField
+            label="Strain name"
+            hint="Your own name for it is fine."
+            maxLength={cultureLimits.strainMax}
+            error={err('strainName')}
+            {...register('strainName')}
+          />
+          <TextField
+            label="Species (optional)"
+            list="species-suggestions"
+            maxLength={cultureLimits.speciesMax}
+            error={err('species')}
+            {...register('species', optText)}
+          />
           <datalist id="species-suggestions">
             {SPECIES_SUGGESTIONS.map((s) => (
               <option key={s} value={s} />
@@ -263,28 +390,103 @@ export function Component() {
             label="Tags (optional)"
             hint="Separate with commas, e.g. saison, house"
             defaultValue={parent.data?.tags.join(', ')}
-            onChange={(e) => setValue('tags', e.target.value.split(',').map((t) => t.trim()).filter(Boolean))}
+            onChange={(e) =>
+              setValue(
+                'tags',
+                e.target.value
+                  .split(',')
+                  .map((t) => t.trim())
+                  .filter(Boolean),
+              )
+            }
             error={err('tags')}
           />
-          <Select label="Form" options={(FORMS_FOR[origin] ?? CULTURE_FORMS).map((f) => ({ value: f, label: formLabels[f] }))} error={err('form')} {...register('form')} />
+          <Select
+            label="Form"
+            options={(FORMS_FOR[origin] ?? CULTURE_FORMS).map((f) => ({ value: f, label: formLabels[f] }))}
+            error={err('form')}
+            {...register('form')}
+          />
           {form === 'slurry_washed' || form === 'slurry_unwashed' || form === 'frozen_glycerol' ? (
-            <TextField label={form === 'frozen_glycerol' ? 'Vial volume (mL)' : 'Slurry volume (mL)'} type="number" inputMode="decimal" step="any" min={0} error={err('amount.volumeMl')} {...register('amount.volumeMl', num)} />
+            <TextField
+              label={form === 'frozen_glycerol' ? 'Vial volume (mL)' : 'Slurry volume (mL)'}
+              type="number"
+              inputMode="decimal"
+              step="any"
+              min={0}
+              error={err('amount.volumeMl')}
+              {...register('amount.volumeMl', num)}
+            />
           ) : null}
-          {form === 'liquid_pack' ? <TextField label="Packs" type="number" inputMode="numeric" min={1} defaultValue={1} error={err('amount.packs')} {...register('amount.packs', num)} /> : null}
-          {form === 'dry_pack' ? <TextField label="Weight (g)" type="number" inputMode="decimal" step="any" min={0} error={err('amount.grams')} {...register('amount.grams', num)} /> : null}
+          {form === 'liquid_pack' ? (
+            <TextField
+              label="Packs"
+              type="number"
+              inputMode="numeric"
+              min={1}
+              defaultValue={1}
+              error={err('amount.packs')}
+              {...register('amount.packs', num)}
+            />
+          ) : null}
+          {form === 'dry_pack' ? (
+            <TextField
+              label="Weight (g)"
+              type="number"
+              inputMode="decimal"
+              step="any"
+              min={0}
+              error={err('amount.grams')}
+              {...register('amount.grams', num)}
+            />
+          ) : null}
           {!parentId ? (
-            <TextField label="Generation (optional)" hint="How many batches it has fermented before it reached you. Leave empty for a fresh start (0)." type="number" inputMode="numeric" min={0} error={err('generation')} {...register('generation', num)} />
+            <TextField
+              label="Generation (optional)"
+              hint="How many batches it has fermented before it reached you. Leave empty for a fresh start (0)."
+              type="number"
+              inputMode="numeric"
+              min={0}
+              error={err('generation')}
+              {...register('generation', num)}
+            />
           ) : null}
         </Card>
 
         <Card className="space-y-4">
           <h2 className="text-lg font-semibold">Where and when</h2>
-          <TextField label={DATE_LABEL[origin] ?? 'Made on'} type="date" max={today()} error={err('madeAt')} {...register('madeAt')} />
+          <TextField
+            label={DATE_LABEL[origin] ?? 'Made on'}
+            type="date"
+            max={today()}
+            error={err('madeAt')}
+            {...register('madeAt')}
+          />
           <div className="grid gap-4 sm:grid-cols-2">
-            <TextField label="Kept at (°C)" type="number" inputMode="decimal" step="any" error={err('storageTempC')} {...register('storageTempC', num)} />
-            <TextField label="Place (optional)" placeholder="Fridge door, jar 2" maxLength={cultureLimits.locationMax} error={err('locationLabel')} {...register('locationLabel')} />
+            <TextField
+              label="Kept at (°C)"
+              type="number"
+              inputMode="decimal"
+              step="any"
+              error={err('storageTempC')}
+              {...register('storageTempC', num)}
+            />
+            <TextField
+              label="Place (optional)"
+              placeholder="Fridge door, jar 2"
+              maxLength={cultureLimits.locationMax}
+              error={err('locationLabel')}
+              {...register('locationLabel')}
+            />
           </div>
-          <RadioGroup legend="Right now it is" options={[{ value: 'stored', label: 'Stored' }, { value: 'active', label: 'Active, in a starter' }]} {...register('state')} />
+          <RadioGroup
+            legend="Right now it is"
+            options={[
+              { value: 'stored', label: 'Stored' },
+              { value: 'active', label: 'Active, in a starter' },
+            ]}
+            {...register('state')}
+          />
           <TextField label="Notes (optional)" maxLength={limits.notesMax} error={err('notes')} {...register('notes')} />
         </Card>
 
