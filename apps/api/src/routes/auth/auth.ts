@@ -1,8 +1,7 @@
 import { Router } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import { attemptLimiter } from '../../middleware/rateLimit';
 import { validate } from '../../middleware/validate';
 import { requireUser } from '../../middleware/session';
-import { AppError } from '../../lib/errors';
 import { presentUser } from '../../presenters/user';
 import * as auth from '../../services/auth';
 import type { ServiceContext } from '../../services/context';
@@ -12,14 +11,7 @@ import { AuthSignInSchema, AuthSignUpSchema, PasswordResetConfirmSchema, Passwor
 
 export function authRouter(ctx: ServiceContext, options: { rateLimitMax: number }) {
   const router = Router();
-  const limiter = rateLimit({
-    windowMs: 10 * 60_000,
-    limit: options.rateLimitMax,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: (_req, _res, next) =>
-      next(new AppError(429, 'rate_limited', 'Too many attempts. Wait a few minutes and try again.')),
-  });
+  const limiter = attemptLimiter(options.rateLimitMax);
 
   router.post('/sign-up', limiter, validate({ body: AuthSignUpSchema }), async (req, res) => {
     const { user, session } = await auth.signUp(ctx, req.body);

@@ -1,8 +1,8 @@
 import { Router } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import { attemptLimiter } from '../../middleware/rateLimit';
 import { validate } from '../../middleware/validate';
 import { currentUser, requireUser } from '../../middleware/session';
-import { AppError, conflict } from '../../lib/errors';
+import { conflict } from '../../lib/errors';
 import { presentUser } from '../../presenters/user';
 import type { ServiceContext } from '../../services/context';
 import * as clubs from '../../services/clubs';
@@ -14,14 +14,7 @@ import { InvitationAcceptSchema, InvitationLookupSchema, InvitationSignUpSchema 
  */
 export function invitationsRouter(ctx: ServiceContext, options: { rateLimitMax: number }) {
   const router = Router();
-  const limiter = rateLimit({
-    windowMs: 10 * 60_000,
-    limit: options.rateLimitMax,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: (_req, _res, next) =>
-      next(new AppError(429, 'rate_limited', 'Too many attempts. Wait a few minutes and try again.')),
-  });
+  const limiter = attemptLimiter(options.rateLimitMax);
 
   router.post('/lookup', limiter, validate({ body: InvitationLookupSchema }), async (req, res) => {
     res.json({ invitation: await clubs.previewInvitation(ctx, req.body.token) });
