@@ -244,8 +244,8 @@ async function main() {
       amount: requests.length * 4,
       requests: requests.map((r) => ({
         ...r,
-        onResponse: (status: number, body: string, context: Record<string, unknown>) => {
-          if (status >= 300) failures.push(`${status} ${String(context.path ?? '')} ${body.slice(0, 200)}`);
+        onResponse: (status: number, body: string) => {
+          if (status >= 300) failures.push(`${status} ${body.slice(0, 200)}`);
         },
       })),
     });
