@@ -163,14 +163,12 @@ async function main() {
     const now = new Date();
     const owner = 'bench-steward';
     const password = 'bench-password-long-enough';
-    await database.db
-      .insert(users)
-      .values({
-        id: owner,
-        email: 'steward@bench.example',
-        name: 'Bench Steward',
-        passwordHash: await hashPassword(password),
-      });
+    await database.db.insert(users).values({
+      id: owner,
+      email: 'steward@bench.example',
+      name: 'Bench Steward',
+      passwordHash: await hashPassword(password),
+    });
     await database.db.insert(clubs).values({ id: 'bench-club', name: 'Weirbank Bench Club (invented)' });
     await database.db.insert(memberships).values({ clubId: 'bench-club', userId: owner, role: 'steward' });
     const rows = [...lineage('big', 5000, 30, owner, 'bench-club', now)];

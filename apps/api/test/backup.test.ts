@@ -57,16 +57,14 @@ beforeAll(async () => {
   await admin(`create database "${targetName}"`);
   const source = connect(urlOf(sourceName), { max: 1 });
   await runMigrations(source.db);
-  await source.db
-    .insert(users)
-    .values(
-      [1, 2, 3].map((i) => ({
-        id: `bk-${i}`,
-        email: `bk-${i}@example.test`,
-        name: `Backup Keeper ${i}`,
-        passwordHash: 'x',
-      })),
-    );
+  await source.db.insert(users).values(
+    [1, 2, 3].map((i) => ({
+      id: `bk-${i}`,
+      email: `bk-${i}@example.test`,
+      name: `Backup Keeper ${i}`,
+      passwordHash: 'x',
+    })),
+  );
   await source.db.insert(clubs).values({ id: 'bk-club', name: 'Invented Backup Club' });
   await source.db.insert(memberships).values({ clubId: 'bk-club', userId: 'bk-1', role: 'owner' });
   await source.close();

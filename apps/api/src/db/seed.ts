@@ -45,18 +45,16 @@ export async function seedDemoIfEmpty(db: Db): Promise<string[]> {
   if (count > 0) return [];
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   await db.transaction(async (tx) => {
-    await tx
-      .insert(users)
-      .values(
-        DEMO_MEMBERS.map((m) => ({
-          id: m.id,
-          email: m.email,
-          name: m.name,
-          passwordHash,
-          role: m.siteRole,
-          timeZone: 'Europe/Berlin',
-        })),
-      );
+    await tx.insert(users).values(
+      DEMO_MEMBERS.map((m) => ({
+        id: m.id,
+        email: m.email,
+        name: m.name,
+        passwordHash,
+        role: m.siteRole,
+        timeZone: 'Europe/Berlin',
+      })),
+    );
     await tx.insert(clubs).values(DEMO_CLUB);
     await tx
       .insert(memberships)
