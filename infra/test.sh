@@ -44,6 +44,7 @@ vitest_suite web @barmkeep/web
 export TEST_ADMIN_DATABASE_URL="$(db_url postgres)"
 vitest_suite api @barmkeep/api
 check build pnpm --filter @barmkeep/web --silent build
+check bundle-budget node infra/bundle-budget.mjs
 
 log "browser tests (Playwright + Debian chromium)"
 psql_admin -c "create database \"$E2E_DB\"" >/dev/null
