@@ -1,4 +1,4 @@
-import { Navigate, NavLink, Outlet, useLocation } from 'react-router';
+import { Link, Navigate, Outlet, useLocation } from 'react-router';
 import { useQuery } from '@tanstack/react-query';
 import { LogOut } from 'lucide-react';
 import { authQueries } from '../api/auth/queries';
@@ -8,35 +8,40 @@ import { signInPathFor } from '../routes/guards';
 import { Brand } from './Brand';
 import { NotificationsBell } from '../components/reminders/NotificationsBell';
 
+/** Each item is current on its own page and on the pages listed under it. */
 const navItems = [
-  { to: '/', label: 'Cultures', end: true },
-  { to: '/plans', label: 'Brew day', end: false },
-  { to: '/clubs', label: 'Clubs', end: false },
-  { to: '/account', label: 'Account', end: false },
+  { to: '/', label: 'Cultures', under: ['/cultures', '/labels'] },
+  { to: '/plans', label: 'Brew day', under: ['/plans', '/batches'] },
+  { to: '/clubs', label: 'Clubs', under: ['/clubs', '/invitation'] },
+  { to: '/account', label: 'Account', under: ['/account', '/notifications'] },
 ] as const;
 
-function MainNav({ className }: { className?: string }) {
+const isUnder = (pathname: string, prefix: string) => pathname === prefix || pathname.startsWith(`${prefix}/`);
+
+export function MainNav({ className }: { className?: string }) {
+  const { pathname } = useLocation();
   return (
     <nav aria-label="Main" className={className}>
       <ul className="flex gap-1">
-        {navItems.map((item) => (
-          <li key={item.to}>
-            <NavLink
-              to={item.to}
-              end={item.end}
-              className={({ isActive }) =>
-                cx(
+        {navItems.map((item) => {
+          const current = pathname === item.to || item.under.some((prefix) => isUnder(pathname, prefix));
+          return (
+            <li key={item.to}>
+              <Link
+                to={item.to}
+                aria-current={current ? 'page' : undefined}
+                className={cx(
                   'inline-flex min-h-11 items-center rounded-md px-3 font-medium',
-                  isActive
+                  current
                     ? 'bg-accent-soft text-accent-strong underline decoration-2 underline-offset-6'
                     : 'text-ink-muted hover:bg-paper-sunk hover:text-ink',
-                )
-              }
-            >
-              {item.label}
-            </NavLink>
-          </li>
-        ))}
+                )}
+              >
+                {item.label}
+              </Link>
+            </li>
+          );
+        })}
       </ul>
     </nav>
   );
