@@ -8,5 +8,6 @@ export { FormAlert, Notice, type NoticeTone } from './Notice';
 export { PageHeader } from './PageHeader';
 export { RadioGroup, type RadioOption } from './RadioGroup';
 export { Select, type SelectOption } from './Select';
+export { TextArea } from './TextArea';
 export { TextField } from './TextField';
 export { cx } from './cx';

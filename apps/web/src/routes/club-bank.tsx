@@ -27,7 +27,7 @@ import { Button, Card, EmptyState, FormAlert, Loading, Notice, Select, TextField
 import { Availability } from '../components/clubs/Availability';
 import { ColdCaution, isFrozenForm } from '../components/clubs/ColdCaution';
 import { DataTable } from '../components/clubs/DataTable';
-import { TextArea } from '../components/clubs/TextArea';
+import { TextArea } from '../components/TextArea';
 import { applyApiError } from '../lib/formErrors';
 import { formLabels } from '../lib/cultureLabels';
 import { canSteward, useClub } from './club';

@@ -13,7 +13,7 @@ import { clubQueries } from '../api/clubs/queries';
 import { useInviteMutation, useRevokeInvitationMutation } from '../api/clubs/mutations';
 import { Button, Card, EmptyState, FormAlert, Loading, Notice, Select, TextField } from '../components';
 import { roleLabels } from '../components/clubs/RoleBadge';
-import { TextArea } from '../components/clubs/TextArea';
+import { TextArea } from '../components/TextArea';
 import { applyApiError } from '../lib/formErrors';
 import { formatDateTime } from '../lib/format';
 import { canSteward, useClub } from './club';

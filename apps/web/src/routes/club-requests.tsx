@@ -11,7 +11,7 @@ import { clubQueries } from '../api/clubs/queries';
 import { useReceiveMutation, useRespondMutation } from '../api/clubs/mutations';
 import { Button, Card, EmptyState, FormAlert, Loading, Notice, TextField } from '../components';
 import { ColdCaution, isFrozenForm } from '../components/clubs/ColdCaution';
-import { TextArea } from '../components/clubs/TextArea';
+import { TextArea } from '../components/TextArea';
 import { applyApiError } from '../lib/formErrors';
 import { formatDateTime } from '../lib/format';
 import { formLabels } from '../lib/cultureLabels';

@@ -6,7 +6,7 @@ import { z } from 'zod';
 import { ClubCreateSchema, clubLimits } from '@barmkeep/schemas';
 import { useDeleteClubMutation, useUpdateClubMutation } from '../api/clubs/mutations';
 import { Button, Card, FormAlert, Notice, TextField } from '../components';
-import { TextArea } from '../components/clubs/TextArea';
+import { TextArea } from '../components/TextArea';
 import { applyApiError } from '../lib/formErrors';
 import { useClub } from './club';
 

@@ -8,7 +8,7 @@ import { clubQueries } from '../api/clubs/queries';
 import { useCreateClubMutation } from '../api/clubs/mutations';
 import { Button, Card, EmptyState, FormAlert, Loading, Notice, PageHeader, TextField } from '../components';
 import { RoleBadge } from '../components/clubs/RoleBadge';
-import { TextArea } from '../components/clubs/TextArea';
+import { TextArea } from '../components/TextArea';
 import { applyApiError } from '../lib/formErrors';
 
 function StartClubForm() {

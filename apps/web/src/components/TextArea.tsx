@@ -1,7 +1,7 @@
 import { useId, type ReactNode, type Ref, type TextareaHTMLAttributes } from 'react';
-import { FieldError } from '../FieldError';
-import { controlClasses, hintClasses, labelClasses } from '../fieldStyles';
-import { cx } from '../cx';
+import { FieldError } from './FieldError';
+import { controlClasses, hintClasses, labelClasses } from './fieldStyles';
+import { cx } from './cx';
 
 interface TextAreaProps extends Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, 'id'> {
   label: ReactNode;
