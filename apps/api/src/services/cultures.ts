@@ -51,7 +51,7 @@ import { attentionOf, healthOf, projectedViabilityOf, viabilitySeries } from './
 import { deriveGeneration, PARENT_REQUIRED_ORIGINS, ROOT_ONLY_ORIGINS } from './cultureLineage';
 import { alertLineage } from './lineageAlerts';
 import { presentCultureDetail, presentCultureSummary, presentEvent, presentLineageNode } from '../presenters/culture';
-import type { ServiceContext } from './context';
+import { inTransaction, type ServiceContext } from './context';
 
 const MS_PER_DAY = 86_400_000;
 const FUTURE_SKEW_MS = 5 * 60_000;
@@ -293,19 +293,48 @@ export async function getLineage(ctx: ServiceContext, actor: Actor, id: string) 
 
 // ---------------------------------------------------------------- update
 
+const DETAIL_LABELS = { strainName: 'strain name', species: 'species', tags: 'tags', notes: 'notes' } as const;
+type DetailField = keyof typeof DETAIL_LABELS;
+
+/**
+ * Descriptive fields and the parent. The row keeps only the latest values, so every change is also
+ * written to the append-only handling log (a "note" with `data.change`), as a parent correction is:
+ * the history of what a culture was called never disappears.
+ */
 export async function updateCulture(ctx: ServiceContext, actor: Actor, id: string, input: CultureUpdateInput) {
   try {
-    return await ctx.db.transaction(async (tx) => {
+    return await inTransaction(ctx, async (t) => {
+      const tx = t.db;
       const row = assertCanEdit(actor, await findCultureForUpdate(tx, id));
-      const set: Partial<CultureInsert> = {};
-      if (input.strainName !== undefined) set.strainName = input.strainName;
-      if (input.species !== undefined) set.species = input.species || null;
-      if (input.tags !== undefined) set.tags = input.tags as string[];
-      if (input.notes !== undefined) set.notes = input.notes;
+      const next: Partial<Pick<CultureRow, DetailField>> = {};
+      if (input.strainName !== undefined) next.strainName = input.strainName;
+      if (input.species !== undefined) next.species = input.species || null;
+      if (input.tags !== undefined) next.tags = input.tags as string[];
+      if (input.notes !== undefined) next.notes = input.notes;
+      const changed = (Object.keys(next) as DetailField[]).filter(
+        (k) => JSON.stringify(next[k]) !== JSON.stringify(row[k]),
+      );
       if (input.parentId !== undefined && input.parentId !== row.parentId) {
         await reparent(tx, ctx, actor, row, input.parentId);
       }
-      const updated = Object.keys(set).length ? await updateCultureRow(tx, id, set) : await findCultureById(tx, id);
+      if (!changed.length) return (await findCultureById(tx, id))!;
+      const set = Object.fromEntries(changed.map((k) => [k, next[k]])) as Partial<CultureInsert>;
+      const updated = await updateCultureRow(tx, id, set);
+      await insertEvents(tx, [
+        {
+          id: newId(),
+          cultureId: row.id,
+          authorUserId: actor.id,
+          kind: 'note',
+          occurredAt: ctx.now(),
+          notes: `Details corrected: ${changed.map((k) => DETAIL_LABELS[k]).join(', ')}`,
+          data: {
+            change: 'details',
+            from: Object.fromEntries(changed.map((k) => [k, row[k]])),
+            to: Object.fromEntries(changed.map((k) => [k, next[k]])),
+          },
+        },
+      ]);
       return updated!;
     });
   } catch (err) {
@@ -314,7 +343,7 @@ export async function updateCulture(ctx: ServiceContext, actor: Actor, id: strin
   }
 }
 
-async function reparent(tx: Tx, ctx: ServiceContext, actor: Actor, row: CultureRow, parentId: string | null) {
+async function reparent(tx: Db, ctx: ServiceContext, actor: Actor, row: CultureRow, parentId: string | null) {
   if (parentId === null) {
     if (PARENT_REQUIRED_ORIGINS.includes(row.origin)) {
       throw validationFailed({ 'body.parentId': ['A re-culture needs the culture it was grown from'] });

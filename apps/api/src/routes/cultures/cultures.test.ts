@@ -193,6 +193,39 @@ describe('PATCH /api/cultures/:id', () => {
     expect(notes.body.culture.tags).toEqual(['saison', 'farmhouse']);
   });
 
+  it('records every change of the details in the handling log, and nothing when nothing changed', async () => {
+    const { agent } = await keeper();
+    const c = await create(agent, buildSlurry(undefined, { strainName: 'Jar 4 ale', tags: ['house'] }));
+    const notes = async () =>
+      (
+        (await agent.get(`/api/cultures/${c.id}/events`).expect(200)).body.events as {
+          kind: string;
+          notes: string;
+          data: Record<string, unknown>;
+        }[]
+      ).filter((e) => e.kind === 'note');
+    await agent
+      .patch(`/api/cultures/${c.id}`)
+      .send({ strainName: 'Jar 4 farmhouse ale', tags: ['house'], species: '' })
+      .expect(200);
+    const [rename] = await notes();
+    expect(rename).toMatchObject({
+      notes: 'Details corrected: strain name',
+      data: { change: 'details', from: { strainName: 'Jar 4 ale' }, to: { strainName: 'Jar 4 farmhouse ale' } },
+    });
+    // the same values again: no entry
+    await agent
+      .patch(`/api/cultures/${c.id}`)
+      .send({ strainName: 'Jar 4 farmhouse ale', tags: ['house'] })
+      .expect(200);
+    expect(await notes()).toHaveLength(1);
+    // refused: neither the row nor the log changes
+    await agent.patch(`/api/cultures/${c.id}`).send({ strainName: '  ' }).expect(400);
+    await agent.patch(`/api/cultures/${c.id}`).send({ strainName: 'Renamed', parentId: c.id }).expect(400);
+    expect((await agent.get(`/api/cultures/${c.id}`).expect(200)).body.culture.strainName).toBe('Jar 4 farmhouse ale');
+    expect(await notes()).toHaveLength(1);
+  });
+
   it('rejects a parent that would close a loop and changes nothing', async () => {
     const { agent } = await keeper();
     const root = await create(agent, buildSlurry(undefined));
