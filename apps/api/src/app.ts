@@ -30,6 +30,7 @@ import { calendarFeedRouter, calendarFileRouter } from './routes/calendar/calend
 import { labelsRouter } from './routes/labels/labels';
 import { culturePhotosRouter } from './routes/cultures/photos';
 import { createStorage, type ObjectStorage } from './storage';
+import { webAppRouter } from './web/webApp';
 
 export interface AppDeps {
   env: Env;
@@ -92,10 +93,11 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   api.use('/account', accountRouter(ctx));
   api.use('/admin', adminRouter(ctx));
   for (const mount of clubRouteMounts(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT })) api.use(mount.path, mount.router);
-  api.use('/cultures', culturesRouter(ctx));
+  const storage = deps.storage ?? createStorage(env);
+  api.use('/cultures', culturesRouter(ctx, storage));
   api.use('/plans', plansRouter(ctx));
   api.use('/batches', batchesRouter(ctx));
-  api.use('/cultures', culturePhotosRouter(ctx, deps.storage ?? createStorage(env)));
+  api.use('/cultures', culturePhotosRouter(ctx, storage));
   api.use('/notifications', notificationsRouter(ctx));
   api.use('/reminder-preferences', reminderPreferencesRouter(ctx));
   api.use('/email-preferences', emailPreferencesRouter(ctx));
@@ -108,8 +110,7 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
 
   const webDist = env.WEB_DIST ?? path.resolve(import.meta.dirname, '../../web/dist');
   if (env.NODE_ENV === 'production' && existsSync(path.join(webDist, 'index.html'))) {
-    app.use(express.static(webDist, { index: false, maxAge: '1h' }));
-    app.get(/^\/(?!api\/).*/, (_req, res) => res.sendFile(path.join(webDist, 'index.html')));
+    app.use(webAppRouter(webDist));
   }
 
   app.use(errorHandler);

@@ -607,13 +607,58 @@ const backupEvent = z.object({
   supersedesEventId: z.string().min(1).max(64).nullable(),
 });
 
-/** A person's cultures and their logs, as exported. Photos are not part of the file. */
-export const CultureBackupSchema = z.object({
-  format: z.literal(BACKUP_FORMAT, { error: 'This is not a Barmkeep culture backup' }),
-  version: z.literal(1, { error: 'This backup version is not supported' }),
-  exportedAt: z.iso.datetime({ offset: true }),
-  cultures: z.array(backupCulture).max(50_000),
-  events: z.array(backupEvent).max(500_000),
+const backupPhoto = z.object({
+  id: z.string().min(1).max(64),
+  cultureId: z.string().min(1).max(64),
+  /** the log entry the photo belongs to, or null for a photo of the culture itself */
+  eventId: z.string().min(1).max(64).nullable(),
+  caption: z.string().trim().max(photoLimits.captionMax, `At most ${photoLimits.captionMax} characters`),
+  createdAt: z.iso.datetime({ offset: true }).transform((s) => new Date(s)),
+  /** informational: the import judges the image by its bytes, as an upload is */
+  contentType: z.string().max(100),
+  /** the web-size image, base64; the thumbnail is made again on import */
+  imageBase64: z
+    .base64({ error: 'The image is not valid base64' })
+    .max(Math.ceil(photoLimits.maxBytes / 3) * 4, `An image can be at most ${photoLimits.maxBytes / 1024 / 1024} MB`),
 });
+
+export const backupLimits = {
+  /** the import's upload limit; a backup with photos is larger than one without */
+  maxBytes: 100 * 1024 * 1024,
+  photosMax: 5_000,
+} as const;
+
+/** The backup versions this release reads; it writes the latest. */
+export const BACKUP_VERSIONS = [1, 2] as const;
+export const BACKUP_VERSION = 2 as const;
+
+/**
+ * A person's cultures and their logs, as exported, and (version 2, when asked for) their photos.
+ * Version 1 files carry no photos; version 2 files carry a `photos` list, empty when the export
+ * was made without them. Both import.
+ */
+export const CultureBackupSchema = z
+  .object({
+    format: z.literal(BACKUP_FORMAT, { error: 'This is not a Barmkeep culture backup' }),
+    version: z.union([z.literal(1), z.literal(2)], { error: 'This backup version is not supported' }),
+    exportedAt: z.iso.datetime({ offset: true }),
+    cultures: z.array(backupCulture).max(50_000),
+    events: z.array(backupEvent).max(500_000),
+    photos: z.array(backupPhoto).max(backupLimits.photosMax).optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.version === 1 && v.photos !== undefined) {
+      ctx.addIssue({ code: 'custom', path: ['photos'], message: 'A version 1 backup carries no photos' });
+    }
+  })
+  .transform((v) => ({ ...v, photos: v.photos ?? [] }));
 export type CultureBackup = z.input<typeof CultureBackupSchema>;
 export type CultureBackupData = z.output<typeof CultureBackupSchema>;
+
+/** GET /cultures/backup.json?photos=1 adds every photo's web-size image to the file. */
+export const CultureBackupExportQuerySchema = z.object({
+  photos: z
+    .enum(['0', '1'], { error: 'photos is 0 or 1' })
+    .default('0')
+    .transform((v) => v === '1'),
+});

@@ -1,9 +1,25 @@
-import { BACKUP_FORMAT, CultureBackupSchema, type CultureBackup, type CultureOriginDetails } from '@barmkeep/schemas';
+import {
+  BACKUP_FORMAT,
+  BACKUP_VERSION,
+  CultureBackupSchema,
+  type CultureBackup,
+  type CultureOriginDetails,
+} from '@barmkeep/schemas';
 import type { ZodError } from 'zod';
-import { insertCultures, insertEvents, listAllCultures, listEventsForCultures } from '../db/queries/cultures';
-import type { CultureInsert } from '../db/schema';
-import { badRequest, validationFailed } from '../lib/errors';
+import {
+  insertCultures,
+  insertEvents,
+  insertPhotos,
+  listAllCultures,
+  listEventsForCultures,
+  listPhotosForCultures,
+} from '../db/queries/cultures';
+import type { CultureInsert, culturePhotos } from '../db/schema';
+import { AppError, badRequest, validationFailed } from '../lib/errors';
 import { newId } from '../lib/ids';
+import { processPhoto, type ProcessedPhoto } from '../lib/images';
+import type { ObjectStorage } from '../storage';
+import { inTransaction } from './context';
 import { visibleCulturesWhere, type Actor } from './cultureAccess';
 import { attentionOf } from './cultureHealth';
 import { deriveGeneration, ROOT_ONLY_ORIGINS } from './cultureLineage';
@@ -81,16 +97,49 @@ function lineageOrder<T extends { id: string; parentId: string | null }>(rows: T
   return out;
 }
 
-export async function exportBackup(ctx: ServiceContext, actor: Actor): Promise<CultureBackup> {
+/** Photos of the exported cultures: each web-size image as base64 (the thumbnail is made again on import). */
+async function exportPhotos(ctx: ServiceContext, storage: ObjectStorage, cultureIds: string[]) {
+  const rows = await listPhotosForCultures(ctx.db, cultureIds);
+  const out: NonNullable<CultureBackup['photos']> = [];
+  for (const p of rows) {
+    const image = await storage.get(p.webKey);
+    // an object lost from storage cannot be exported; the rest of the file still is
+    if (!image) continue;
+    out.push({
+      id: p.id,
+      cultureId: p.cultureId,
+      eventId: p.eventId,
+      caption: p.caption,
+      createdAt: p.createdAt.toISOString(),
+      contentType: p.contentType,
+      imageBase64: image.toString('base64'),
+    });
+  }
+  return out;
+}
+
+export async function exportBackup(
+  ctx: ServiceContext,
+  storage: ObjectStorage,
+  actor: Actor,
+  options: { photos: boolean } = { photos: false },
+): Promise<CultureBackup> {
   const rows = lineageOrder(await listAllCultures(ctx.db, visibleCulturesWhere(actor)));
   const events = await listEventsForCultures(
     ctx.db,
     rows.map((r) => r.id),
   );
   const exported = new Set(rows.map((r) => r.id));
+  const photos = options.photos
+    ? await exportPhotos(
+        ctx,
+        storage,
+        rows.map((r) => r.id),
+      )
+    : [];
   return {
     format: BACKUP_FORMAT,
-    version: 1,
+    version: BACKUP_VERSION,
     exportedAt: ctx.now().toISOString(),
     cultures: rows.map((r) => ({
       id: r.id,
@@ -120,6 +169,7 @@ export async function exportBackup(ctx: ServiceContext, actor: Actor): Promise<C
       data: e.data,
       supersedesEventId: e.supersedesEventId,
     })),
+    photos,
   };
 }
 
@@ -129,7 +179,7 @@ function rowMessages(error: ZodError, raw: unknown): Record<string, string[]> {
   for (const issue of error.issues) {
     const [list, index, ...rest] = issue.path;
     let where = issue.path.map(String).join('.') || 'file';
-    if ((list === 'cultures' || list === 'events') && typeof index === 'number') {
+    if ((list === 'cultures' || list === 'events' || list === 'photos') && typeof index === 'number') {
       const id = (raw as Record<string, { id?: unknown }[]>)[list]?.[index]?.id;
       where = `${list}[${index}]${typeof id === 'string' ? ` (id ${id})` : ''}${rest.length ? `: ${rest.join('.')}` : ''}`;
     }
@@ -138,12 +188,21 @@ function rowMessages(error: ZodError, raw: unknown): Record<string, string[]> {
   return fields;
 }
 
+/** The words an upload of this image would have been refused with. */
+function imageProblem(err: unknown): string {
+  if (err instanceof AppError) return err.message;
+  return 'This image could not be read';
+}
+
 /**
- * Adds every culture and log entry of a backup as new rows of the actor, all or nothing. Ids are
- * new (a backup can be imported twice without clashing); parents must come earlier in the file, so
- * a lineage can only be rebuilt from its root down and a loop cannot be expressed.
+ * Adds every culture, log entry and photo of a backup as new rows of the actor, all or nothing. Ids
+ * are new (a backup can be imported twice without clashing); parents must come earlier in the file,
+ * so a lineage can only be rebuilt from its root down and a loop cannot be expressed. Each photo
+ * goes through the upload pipeline (judged by its bytes, re-encoded, metadata dropped) before
+ * anything is written; storage objects are written only once every row is good, and removed again
+ * if the database refuses the rows.
  */
-export async function importBackup(ctx: ServiceContext, actor: Actor, file: Buffer) {
+export async function importBackup(ctx: ServiceContext, storage: ObjectStorage, actor: Actor, file: Buffer) {
   let raw: unknown;
   try {
     raw = JSON.parse(file.toString('utf8'));
@@ -238,6 +297,39 @@ export async function importBackup(ctx: ServiceContext, actor: Actor, file: Buff
       },
     ];
   });
+  const cultureOfEvent = new Map(backup.events.map((e) => [e.id, e.cultureId]));
+  const photoIds = new Set<string>();
+  const photoRows: {
+    where: string;
+    source: (typeof backup.photos)[number];
+    cultureId: string;
+    eventId: string | null;
+  }[] = [];
+  backup.photos.forEach((p, i) => {
+    const where = `photos[${i}] (id ${p.id})`;
+    const cultureId = idMap.get(p.cultureId);
+    if (!cultureId) return bad(where, 'Its culture is not in the file');
+    if (photoIds.has(p.id)) return bad(where, 'This id appears twice in the file');
+    photoIds.add(p.id);
+    let eventId: string | null = null;
+    if (p.eventId !== null) {
+      if (!eventIds.has(p.eventId)) return bad(where, 'Its log entry is not in the file');
+      if (cultureOfEvent.get(p.eventId) !== p.cultureId) return bad(where, 'Its log entry belongs to another culture');
+      eventId = eventIds.get(p.eventId)!;
+    }
+    photoRows.push({ where, source: p, cultureId, eventId });
+  });
+  if (Object.keys(fields).length) throw validationFailed(fields);
+
+  // every image through the upload pipeline before anything is written; one at a time (sharp is CPU-bound)
+  const processed: ProcessedPhoto[] = [];
+  for (const p of photoRows) {
+    try {
+      processed.push(await processPhoto(Buffer.from(p.source.imageBase64, 'base64')));
+    } catch (err) {
+      bad(p.where, imageProblem(err));
+    }
+  }
   if (Object.keys(fields).length) throw validationFailed(fields);
 
   // the latest effective count of each culture anchors its projection, as it did before export
@@ -252,9 +344,41 @@ export async function importBackup(ctx: ServiceContext, actor: Actor, file: Buff
     row.measuredViability = result?.viability ?? null;
   }
 
-  await ctx.db.transaction(async (tx) => {
-    for (let i = 0; i < rows.length; i += 1000) await insertCultures(tx, rows.slice(i, i + 1000));
-    for (let i = 0; i < events.length; i += 1000) await insertEvents(tx, events.slice(i, i + 1000));
+  const photos: (typeof culturePhotos.$inferInsert)[] = photoRows.map((p, i) => {
+    const id = newId();
+    const image = processed[i]!;
+    return {
+      id,
+      cultureId: p.cultureId,
+      eventId: p.eventId,
+      uploadedBy: actor.id,
+      caption: p.source.caption,
+      webKey: `cultures/${p.cultureId}/${id}-web.webp`,
+      thumbKey: `cultures/${p.cultureId}/${id}-thumb.webp`,
+      contentType: image.contentType,
+      width: image.web.width,
+      height: image.web.height,
+      bytes: image.web.data.length,
+      createdAt: p.source.createdAt,
+    };
   });
-  return { cultures: rows.length, events: events.length };
+  const written: string[] = [];
+  try {
+    for (const [i, p] of photos.entries()) {
+      const image = processed[i]!;
+      written.push(p.webKey);
+      await storage.put(p.webKey, image.web.data, image.contentType);
+      written.push(p.thumbKey);
+      await storage.put(p.thumbKey, image.thumb.data, image.contentType);
+    }
+    await inTransaction(ctx, async ({ db: tx }) => {
+      for (let i = 0; i < rows.length; i += 1000) await insertCultures(tx, rows.slice(i, i + 1000));
+      for (let i = 0; i < events.length; i += 1000) await insertEvents(tx, events.slice(i, i + 1000));
+      for (let i = 0; i < photos.length; i += 1000) await insertPhotos(tx, photos.slice(i, i + 1000));
+    });
+  } catch (err) {
+    await Promise.allSettled(written.map((key) => storage.delete(key)));
+    throw err;
+  }
+  return { cultures: rows.length, events: events.length, photos: photos.length };
 }

@@ -358,6 +358,21 @@ export async function listPhotosOfCulture(db: Executor, cultureId: string): Prom
     .orderBy(desc(culturePhotos.createdAt), desc(culturePhotos.id));
 }
 
+export async function insertPhotos(db: Executor, values: (typeof culturePhotos.$inferInsert)[]): Promise<void> {
+  if (values.length === 0) return;
+  await db.insert(culturePhotos).values(values);
+}
+
+/** Every photo of these cultures, oldest first (the order a backup lists them in). */
+export async function listPhotosForCultures(db: Executor, cultureIds: string[]): Promise<CulturePhotoRow[]> {
+  if (cultureIds.length === 0) return [];
+  return db
+    .select()
+    .from(culturePhotos)
+    .where(inArray(culturePhotos.cultureId, cultureIds))
+    .orderBy(asc(culturePhotos.createdAt), asc(culturePhotos.id));
+}
+
 export async function findPhoto(
   db: Executor,
   cultureId: string,

@@ -5,6 +5,7 @@ import { exportBackup, exportLibraryCsv, importBackup } from '../../services/cul
 import { validate } from '../../middleware/validate';
 import { currentUser, requireUser } from '../../middleware/session';
 import type { ServiceContext } from '../../services/context';
+import type { ObjectStorage } from '../../storage';
 import {
   addCultureEvent,
   changeCultureState,
@@ -22,6 +23,8 @@ import {
 } from '../../services/cultures';
 import { presentCultureSummary, presentEvent } from '../../presenters/culture';
 import {
+  backupLimits,
+  CultureBackupExportQuerySchema,
   CultureEventCreateSchema,
   CultureHealthQuerySchema,
   CultureIdParamsSchema,
@@ -36,15 +39,16 @@ import {
 
 /** The backup file arrives as an upload (field "file"), so a large library is not held to the JSON body limit. */
 function receiveBackup(): RequestHandler {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 50 * 1024 * 1024, files: 1 } }).single(
-    'file',
-  );
+  const upload = multer({
+    storage: multer.memoryStorage(),
+    limits: { fileSize: backupLimits.maxBytes, files: 1 },
+  }).single('file');
   return (req, res, next) =>
     upload(req, res, (err: unknown) => {
       if (err instanceof multer.MulterError) {
         return next(
           err.code === 'LIMIT_FILE_SIZE'
-            ? new AppError(413, 'file_too_large', 'Backups can be at most 50 MB')
+            ? new AppError(413, 'file_too_large', `Backups can be at most ${backupLimits.maxBytes / 1024 / 1024} MB`)
             : badRequest('Send the backup in the "file" field', 'bad_upload'),
         );
       }
@@ -58,7 +62,7 @@ function receiveBackup(): RequestHandler {
 }
 
 /** The culture library: the route parses, the service authorizes and does the work. */
-export function culturesRouter(ctx: ServiceContext) {
+export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
   const router = Router();
   router.use(requireUser);
   const id = (req: { params: unknown }) => (req.params as { id: string }).id;
@@ -74,8 +78,9 @@ export function culturesRouter(ctx: ServiceContext) {
     res.send(csv);
   });
 
-  router.get('/backup.json', async (req, res) => {
-    const backup = await exportBackup(ctx, currentUser(req));
+  router.get('/backup.json', validate({ query: CultureBackupExportQuerySchema }), async (req, res) => {
+    const { photos } = req.query as unknown as { photos: boolean };
+    const backup = await exportBackup(ctx, storage, currentUser(req), { photos });
     res.setHeader(
       'Content-Disposition',
       `attachment; filename="barmkeep-backup-${ctx.now().toISOString().slice(0, 10)}.json"`,
@@ -84,7 +89,7 @@ export function culturesRouter(ctx: ServiceContext) {
   });
 
   router.post('/backup', receiveBackup(), async (req, res) => {
-    res.status(201).json({ imported: await importBackup(ctx, currentUser(req), req.file!.buffer) });
+    res.status(201).json({ imported: await importBackup(ctx, storage, currentUser(req), req.file!.buffer) });
   });
 
   router.get('/', validate({ query: CultureListSchema }), async (req, res) => {

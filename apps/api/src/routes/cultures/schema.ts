@@ -9,6 +9,8 @@ export {
   CultureQuarantineSchema,
   CultureHealthQuerySchema,
   CulturePhotoUploadSchema,
+  CultureBackupExportQuerySchema,
+  backupLimits,
   type CultureListQuery,
 } from '@barmkeep/schemas';
 import { z } from 'zod';
