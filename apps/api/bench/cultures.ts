@@ -25,6 +25,7 @@ import { hashPassword } from '../src/lib/password';
 import { createLogger } from '../src/lib/logger';
 import { attentionOf } from '../src/services/cultureHealth';
 import { CULTURE_FORMS, type CultureForm } from '@barmkeep/core';
+import { Processes, spawnNode, waitFor } from '../test/faults/processes';
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 10);
 const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 50);
@@ -176,7 +177,7 @@ async function main() {
       rows.push(...lineage(`l${l}`, 20, Math.min(30, 5 + (l % 26)), owner, 'bench-club', now));
     const t0 = performance.now();
     for (let i = 0; i < rows.length; i += 1000) await database.db.insert(cultures).values(rows.slice(i, i + 1000));
-    await raw.query('analyze');
+    await raw.query('vacuum analyze'); // as autovacuum leaves a settled table: visibility map set, statistics fresh
     const deepLeaf = 'big-30'; // the end of the initial chain: depth 30, a leaf
     console.log(
       `seeded ${rows.length} cultures in ${((performance.now() - t0) / 1000).toFixed(1)} s; lineage from ${deepLeaf}`,
@@ -243,7 +244,9 @@ async function main() {
         fetch(`${base}/api/health`).then((r) => r.arrayBuffer()),
       );
     }
-    for (const c of cases) {
+    // BENCH_CASES=list (or lineage) runs only the cases whose name contains it, e.g. for a CPU profile
+    const only = process.env.BENCH_CASES;
+    for (const c of cases.filter((k) => !only || k.name.includes(only))) {
       // capture exactly what one request sends to PostgreSQL
       const captured: unknown[] = [];
       const original = database.pool.query.bind(database.pool);
@@ -271,7 +274,25 @@ async function main() {
       await cannon({ url: `${base}${c.path}`, connections: 10, duration: 2, cookie });
       await rawLoop(raw, captured, 2);
 
+      // BENCH_PROFILE=dir writes a CPU profile of the server side of each API run (only that phase)
+      const profiler = process.env.BENCH_PROFILE ? new (await import('node:inspector/promises')).Session() : null;
+      if (profiler) {
+        profiler.connect();
+        await profiler.post('Profiler.enable');
+        await profiler.post('Profiler.start');
+      }
+      const cpu0 = process.cpuUsage();
       const api = await cannon({ url: `${base}${c.path}`, connections: c.connections, duration: SECONDS, cookie });
+      const cpu = process.cpuUsage(cpu0);
+      // CPU the server process used per answered request (user + system): not skewed by waiting for a core
+      const cpuPerRequest = (cpu.user + cpu.system) / 1000 / api.requests.total;
+      if (profiler) {
+        const { profile } = await profiler.post('Profiler.stop');
+        const file = `${process.env.BENCH_PROFILE}/${c.name.replace(/\W+/g, '-')}.cpuprofile`;
+        (await import('node:fs')).writeFileSync(file, JSON.stringify(profile));
+        console.log(`CPU profile of the API run: ${file}`);
+        profiler.disconnect();
+      }
       if (api.non2xx > 0 || api.errors > 0) throw new Error(`${c.path}: ${api.non2xx} non-2xx, ${api.errors} errors`);
       const sqlAll = await rawLoop(raw, captured, SECONDS, c.connections);
       const sqlData = await rawLoop(raw, dataQueries, SECONDS, c.connections);
@@ -280,9 +301,26 @@ async function main() {
         `| | same SQL via pg (${captured.length} queries: session + data) | ${sqlAll.p50.toFixed(1)} | ${sqlAll.p99.toFixed(1)} | ${sqlAll.mean.toFixed(1)} | ${Math.round(sqlAll.rps)} |`,
         `| | data SQL only via pg (${dataQueries.length} queries) | ${sqlData.p50.toFixed(1)} | ${sqlData.p99.toFixed(1)} | ${sqlData.mean.toFixed(1)} | ${Math.round(sqlData.rps)} |`,
         `| | **ratio API / same SQL** (mean latency; throughput) | | | **${(api.latency.average / sqlAll.mean).toFixed(2)}×** | **${(sqlAll.rps / api.requests.average).toFixed(2)}×** |`,
+        `| | API server CPU per request (user + system) | | | ${cpuPerRequest.toFixed(2)} ms (${(cpu.system / 1000 / api.requests.total).toFixed(2)} system) | |`,
       ];
       results.push(...line);
       console.log(line.join('\n'));
+    }
+    // the yardstick, in the same run: Express answering a constant JSON in its own process, same load
+    if (!only || /bare|library/.test(only)) {
+      const procs = new Processes();
+      try {
+        const bare = spawnNode('bench/bare-server.ts', { PORT: '0' }, procs, 'bare');
+        const port = await waitFor('bare server', async () => Number(/listening on (\d+)/.exec(bare.output())?.[1]));
+        const bareUrl = `http://127.0.0.1:${port}/bare`;
+        await cannon({ url: bareUrl, connections: 10, duration: 2, cookie: '' });
+        const r = await cannon({ url: bareUrl, connections: CONNECTIONS, duration: SECONDS, cookie: '' });
+        const line = `| bare Express 5, constant JSON (own process, no session or database), ${CONNECTIONS} connections | yardstick | ${r.latency.p50} | ${r.latency.p99} | ${r.latency.average.toFixed(1)} | ${Math.round(r.requests.average)} |`;
+        results.push(line);
+        console.log(line);
+      } finally {
+        await procs.stopAll();
+      }
     }
     console.log('\n| case | side | p50 ms | p99 ms | mean ms | req/s |\n| --- | --- | --- | --- | --- | --- |');
     console.log(results.join('\n'));

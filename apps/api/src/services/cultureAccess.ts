@@ -1,4 +1,4 @@
-import { eq, type SQL } from 'drizzle-orm';
+import { eq, sql, type SQL } from 'drizzle-orm';
 import { cultures, type CultureRow } from '../db/schema';
 import { findCultureById } from '../db/queries/cultures';
 import { findClubTies } from '../db/queries/clubs';
@@ -55,6 +55,12 @@ export async function loadLineageTies(db: Db, actor: Actor): Promise<LineageTies
 export function visibleCulturesWhere(actor: Actor): SQL {
   return eq(cultures.ownerUserId, actor.id);
 }
+
+/**
+ * `visibleCulturesWhere` with the actor left as the placeholder `actorId`, for a statement that is
+ * prepared once and run with `{ actorId: actor.id }`. Change the two together.
+ */
+export const visibleCulturesTemplate: SQL = eq(cultures.ownerUserId, sql.placeholder('actorId'));
 
 /** Someone else's culture is indistinguishable from one that does not exist: always 404. */
 export function assertCanView(actor: Actor, c: CultureRow | undefined): CultureRow {

@@ -27,6 +27,7 @@ import {
   isEventSuperseded,
   lineageOf,
   listCultureProjectionInputs,
+  listCulturesDefaultPage,
   listCulturesPage,
   listEventsOfCulture,
   markSuspect,
@@ -44,6 +45,7 @@ import {
   canView,
   loadCultureForView,
   loadLineageTies,
+  visibleCulturesTemplate,
   visibleCulturesWhere,
   type Actor,
 } from './cultureAccess';
@@ -167,12 +169,17 @@ export async function listCultures(ctx: ServiceContext, actor: Actor, q: Culture
   const offset = (q.page - 1) * q.pageSize;
   const byViability = q.sort === 'viability' || q.viabilityMinPct !== undefined || q.viabilityMaxPct !== undefined;
   if (!byViability) {
-    const { rows, total } = await listCulturesPage(ctx.db, filter, {
-      sort: q.sort as Exclude<typeof q.sort, 'viability'>,
-      dir: q.dir,
-      limit: q.pageSize,
-      offset,
-    });
+    const page = { sort: q.sort as Exclude<typeof q.sort, 'viability'>, dir: q.dir, limit: q.pageSize, offset };
+    const unfiltered = Object.entries(filter).every(
+      ([k, v]) => k === 'visible' || v === undefined || (Array.isArray(v) && v.length === 0),
+    );
+    const { rows, total } = unfiltered
+      ? await listCulturesDefaultPage(
+          ctx.db,
+          { template: visibleCulturesTemplate, actorId: actor.id, visible: filter.visible },
+          page,
+        )
+      : await listCulturesPage(ctx.db, filter, page);
     return { cultures: rows.map((r) => presentCultureSummary(r, now)), page: q.page, pageSize: q.pageSize, total };
   }
   // Projected viability is core's model, not a column: project every matching culture, then page.

@@ -122,31 +122,87 @@ export const summaryColumns = {
 };
 export type CultureSummaryRow = Pick<CultureRow, keyof typeof summaryColumns>;
 
+type PageSpec = { sort: Exclude<CultureSort, 'viability'>; dir: 'asc' | 'desc'; limit: number; offset: number };
+
+/** The summary columns plus the number of cultures matching `where`, carried on every row. */
+const pageColumns = (where: SQL) => ({
+  ...summaryColumns,
+  total: sql<number>`(select count(*) from ${cultures} where ${where})`.mapWith(Number),
+});
+
+function splitTotal(rows: (CultureSummaryRow & { total: number })[]) {
+  const total = rows[0]?.total ?? 0;
+  return { rows: rows.map(({ total: _total, ...row }) => row as CultureSummaryRow), total };
+}
+
 /**
- * One page of cultures and the total. Two small statements rather than `count(*) over ()`: the
- * window would read and carry every matching row; the page reads only its rows through the
- * (owner, attention, id) index and the count is an index-only scan.
+ * One page of cultures and the total, in ONE statement: the page reads only its rows through the
+ * (owner, attention, id) index, the total is a scalar subquery (an index-only scan on a settled
+ * table), so a page costs one round trip. `count(*) over ()` would instead carry every matching
+ * row through a window. A page past the end has no row to carry the total: then it is counted alone.
  */
 export async function listCulturesPage(
   db: Executor,
   f: CultureListFilter,
-  page: { sort: Exclude<CultureSort, 'viability'>; dir: 'asc' | 'desc'; limit: number; offset: number },
+  page: PageSpec,
 ): Promise<{ rows: CultureSummaryRow[]; total: number }> {
   const where = listWhere(f);
-  const rows = await db
-    .select(summaryColumns)
-    .from(cultures)
-    .where(where)
-    .orderBy(...SQL_SORTS[page.sort](page.dir))
-    .limit(page.limit)
-    .offset(page.offset);
-  // a short first page is the whole answer; no need to count
-  if (page.offset === 0 && rows.length < page.limit) return { rows, total: rows.length };
+  const found = splitTotal(
+    await db
+      .select(pageColumns(where))
+      .from(cultures)
+      .where(where)
+      .orderBy(...SQL_SORTS[page.sort](page.dir))
+      .limit(page.limit)
+      .offset(page.offset),
+  );
+  if (found.rows.length > 0 || page.offset === 0) return found;
+  return { rows: [], total: await countCultures(db, where) };
+}
+
+async function countCultures(db: Executor, where: SQL) {
   const [c] = await db
     .select({ n: sql<number>`count(*)`.mapWith(Number) })
     .from(cultures)
     .where(where);
-  return { rows, total: c?.n ?? 0 };
+  return c?.n ?? 0;
+}
+
+const preparedPages = new WeakMap<object, Map<string, ReturnType<typeof preparePage>>>();
+
+function preparePage(db: Db, visible: SQL, sort: PageSpec['sort'], dir: PageSpec['dir']) {
+  return db
+    .select(pageColumns(visible))
+    .from(cultures)
+    .where(visible)
+    .orderBy(...SQL_SORTS[sort](dir))
+    .limit(sql.placeholder('limit'))
+    .offset(sql.placeholder('offset'))
+    .prepare(`cultures_page_${sort}_${dir}`);
+}
+
+/**
+ * The unfiltered library page — what everyone opens — as a named prepared statement: drizzle builds
+ * it once per sort and direction, and PostgreSQL parses and plans it once per connection.
+ * `access.template` is the access predicate with the actor as the placeholder `actorId`
+ * (services/cultureAccess.ts `visibleCulturesTemplate`, the same object on every call);
+ * `access.visible` is the same predicate for this actor, for the rare page past the end.
+ */
+export async function listCulturesDefaultPage(
+  db: Db,
+  access: { template: SQL; actorId: string; visible: SQL },
+  page: PageSpec,
+): Promise<{ rows: CultureSummaryRow[]; total: number }> {
+  let byDb = preparedPages.get(db);
+  if (!byDb) preparedPages.set(db, (byDb = new Map()));
+  const key = `${page.sort}:${page.dir}`;
+  let statement = byDb.get(key);
+  if (!statement) byDb.set(key, (statement = preparePage(db, access.template, page.sort, page.dir)));
+  const found = splitTotal(
+    await statement.execute({ actorId: access.actorId, limit: page.limit, offset: page.offset }),
+  );
+  if (found.rows.length > 0 || page.offset === 0) return found;
+  return { rows: [], total: await countCultures(db, access.visible) };
 }
 
 /** The few columns a viability projection needs, for every culture matching the filter. */

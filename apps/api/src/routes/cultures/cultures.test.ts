@@ -537,6 +537,25 @@ describe('GET /api/cultures (library)', () => {
     expect(page2.cultures).toHaveLength(1);
     const byName = (await agent.get('/api/cultures?sort=name&dir=desc').expect(200)).body;
     expect(byName.cultures[0].strainName).toBe('Tidewater Kölsch');
+    // a page past the end is empty but still knows the total, filtered or not
+    const beyond = (await agent.get('/api/cultures?pageSize=3&page=5').expect(200)).body;
+    expect(beyond).toMatchObject({ total: 4, page: 5, cultures: [] });
+    const beyondFiltered = (await agent.get('/api/cultures?pageSize=1&page=9&q=quarry').expect(200)).body;
+    expect(beyondFiltered).toMatchObject({ total: 2, cultures: [] });
+  });
+
+  it('the unfiltered page (a statement prepared once) answers each keeper with their own cultures only', async () => {
+    const a = await keeper();
+    const b = await keeper();
+    const mine = await create(a.agent, buildDregs({ strainName: 'Lantern Row dregs' }));
+    for (const dir of ['asc', 'desc']) {
+      for (const sort of ['attention', 'name', 'made', 'generation', 'state', 'form']) {
+        const pa = (await a.agent.get(`/api/cultures?sort=${sort}&dir=${dir}`).expect(200)).body;
+        const pb = (await b.agent.get(`/api/cultures?sort=${sort}&dir=${dir}`).expect(200)).body;
+        expect(pa).toMatchObject({ total: 1, cultures: [{ id: mine.id }] });
+        expect(pb).toMatchObject({ total: 0, cultures: [] });
+      }
+    }
   });
 
   it('sorts and filters by core-projected viability', async () => {
