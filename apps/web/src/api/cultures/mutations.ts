@@ -42,11 +42,17 @@ export function useCreateCultureMutation() {
 }
 
 export function useUpdateCultureMutation(id: string) {
+  const queryClient = useQueryClient();
   const invalidate = useInvalidateCulture();
   return useMutation({
     mutationFn: (input: CultureUpdateInput) =>
       api.patch<{ culture: CultureDetailDto }>(path(id), input).then((r) => r.culture),
-    onSuccess: () => invalidate(id),
+    onSuccess: async (culture, input) => {
+      queryClient.setQueryData(cultureKeys.detail(id), culture);
+      // a new parent moves a whole subtree: other cultures' generations and lineages change too
+      if (input.parentId !== undefined) await queryClient.invalidateQueries({ queryKey: cultureKeys.all });
+      else await invalidate(id);
+    },
   });
 }
 
@@ -158,7 +164,7 @@ export function useImportBackupMutation() {
         });
       }
       const body = (await res.json().catch(() => undefined)) as
-        ({ imported: { cultures: number; events: number } } & Partial<ApiErrorBody>) | undefined;
+        ({ imported: { cultures: number; events: number; photos: number } } & Partial<ApiErrorBody>) | undefined;
       if (!res.ok || !body?.imported) {
         throw new ApiError({
           status: res.status,

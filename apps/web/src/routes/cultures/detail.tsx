@@ -1,7 +1,7 @@
 import { lazy, Suspense, useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router';
 import { useQuery } from '@tanstack/react-query';
-import { Camera, GitFork, Network, ShieldAlert, Trash2, TriangleAlert } from 'lucide-react';
+import { Camera, GitFork, Network, Pencil, ShieldAlert, Trash2, TriangleAlert } from 'lucide-react';
 import {
   CORRECTABLE_EVENT_KINDS,
   CULTURE_STATES,
@@ -46,6 +46,7 @@ import {
 } from '../../lib/cultureLabels';
 import { formatDateTime } from '../../lib/format';
 import { OfferInClub } from '../../components/clubs/OfferInClub';
+import { EditDetails } from './EditDetails';
 
 const ViabilityChart = lazy(() => import('./ViabilityChart'));
 
@@ -378,6 +379,27 @@ function AddEntry({
   );
 }
 
+const DETAIL_NAMES: Record<string, string> = { strainName: 'Name', species: 'Species', tags: 'Tags', notes: 'Notes' };
+const shown = (v: unknown) => {
+  const s = Array.isArray(v) ? v.join(', ') : v === null || v === undefined ? '' : String(v);
+  return s === '' ? '—' : s;
+};
+
+/** "Name: Jar 4 → Jar 4 saison" for each field a details edit changed (long notes are shortened). */
+function detailsChange(d: Record<string, unknown>): string {
+  const from = (d.from ?? {}) as Record<string, unknown>;
+  const to = (d.to ?? {}) as Record<string, unknown>;
+  const cut = (s: string) => (s.length > 60 ? `${s.slice(0, 57)}…` : s);
+  // stored as JSONB, whose key order is not the order written: show them in the form's order
+  return Object.keys(DETAIL_NAMES)
+    .filter((k) => k in to)
+    .map((k) => `${DETAIL_NAMES[k] ?? k}: ${cut(shown(from[k]))} → ${cut(shown(to[k]))}`)
+    .join('; ');
+}
+
+/** Entries the app wrote for a details or parent edit: history, not something to correct. */
+const isRecordOfEdit = (e: CultureEventDto) => e.kind === 'note' && typeof e.data.change === 'string';
+
 function describe(e: CultureEventDto): string | null {
   const d = e.data as Record<string, unknown>;
   const r = d.result as { cellsPerMl?: number; viability?: number; warnings?: string[] } | undefined;
@@ -398,6 +420,8 @@ function describe(e: CultureEventDto): string | null {
       return `into ${(d.childIds as string[]).length} parts`;
     case 'contamination_confirmed':
       return `${(d.flaggedIds as string[]).length} descendants flagged`;
+    case 'note':
+      return d.change === 'details' ? detailsChange(d) : null;
     default:
       return null;
   }
@@ -426,9 +450,12 @@ function Log({ c }: { c: CultureDetailDto }) {
                 {formatDateTime(e.occurredAt)}
                 {e.author ? ` · ${e.author.name}` : ''}
               </p>
-              {describe(e) ? <p className="num text-sm">{describe(e)}</p> : null}
+              {describe(e) ? <p className={cx('text-sm', !isRecordOfEdit(e) && 'num')}>{describe(e)}</p> : null}
               {e.notes ? <p className="text-sm">{e.notes}</p> : null}
-              {CORRECTABLE_EVENT_KINDS.includes(e.kind) && !e.supersededByEventId && e.kind !== 'harvested' ? (
+              {CORRECTABLE_EVENT_KINDS.includes(e.kind) &&
+              !e.supersededByEventId &&
+              e.kind !== 'harvested' &&
+              !isRecordOfEdit(e) ? (
                 <Button variant="quiet" className="min-h-9 px-1 text-sm" onClick={() => setCorrecting(e)}>
                   Correct
                 </Button>
@@ -711,6 +738,8 @@ function Actions({ c }: { c: CultureDetailDto }) {
 export function Component() {
   const { id = '' } = useParams();
   const { data: c, isError, error } = useQuery(cultureQueries.detail(id));
+  // the culture being edited, so moving to another culture's page closes the form
+  const [editingId, setEditingId] = useState<string | null>(null);
   if (isError) {
     return (
       <Notice
@@ -763,35 +792,49 @@ export function Component() {
             </Notice>
           ))}
         <Card>
-          <dl className="grid grid-cols-2 gap-4 sm:grid-cols-3">
-            <Fact label="Origin">{originLabels[c.origin]}</Fact>
-            <OriginFacts c={c} />
-            <Fact label={c.origin === 'purchased' ? 'Made on' : 'Harvested or made'}>
-              {formatDate(c.madeAt)} (<span className="num">{c.ageDays}</span> d)
-            </Fact>
-            <Fact label="Kept">
-              {c.locationLabel ? `${c.locationLabel}, ` : ''}
-              <span className="num">{c.storageTempC} °C</span>
-            </Fact>
-            {c.parentId ? (
-              <Fact label="Parent">
-                <Link className="text-accent underline" to={`/cultures/${c.parentId}`}>
-                  open
-                </Link>
-              </Fact>
-            ) : null}
-            <Fact label="State since">
-              {formatDateTime(c.stateChangedAt)}
-              {c.stateChangedBy ? `, by ${c.stateChangedBy.name}` : ''}
-            </Fact>
-            {c.species ? (
-              <Fact label="Species">
-                <i>{c.species}</i>
-              </Fact>
-            ) : null}
-            {c.tags.length ? <Fact label="Tags">{c.tags.join(', ')}</Fact> : null}
-          </dl>
-          {c.notes ? <p className="mt-4 whitespace-pre-line">{c.notes}</p> : null}
+          {editingId === c.id ? (
+            <EditDetails key={c.id} c={c} onDone={() => setEditingId(null)} />
+          ) : (
+            <>
+              <dl className="grid grid-cols-2 gap-4 sm:grid-cols-3">
+                <Fact label="Origin">{originLabels[c.origin]}</Fact>
+                <OriginFacts c={c} />
+                <Fact label={c.origin === 'purchased' ? 'Made on' : 'Harvested or made'}>
+                  {formatDate(c.madeAt)} (<span className="num">{c.ageDays}</span> d)
+                </Fact>
+                <Fact label="Kept">
+                  {c.locationLabel ? `${c.locationLabel}, ` : ''}
+                  <span className="num">{c.storageTempC} °C</span>
+                </Fact>
+                {c.parentId ? (
+                  <Fact label="Parent">
+                    <Link className="text-accent underline" to={`/cultures/${c.parentId}`}>
+                      open
+                    </Link>
+                  </Fact>
+                ) : null}
+                <Fact label="State since">
+                  {formatDateTime(c.stateChangedAt)}
+                  {c.stateChangedBy ? `, by ${c.stateChangedBy.name}` : ''}
+                </Fact>
+                {c.species ? (
+                  <Fact label="Species">
+                    <i>{c.species}</i>
+                  </Fact>
+                ) : null}
+                {c.tags.length ? <Fact label="Tags">{c.tags.join(', ')}</Fact> : null}
+              </dl>
+              {c.notes ? <p className="mt-4 whitespace-pre-line">{c.notes}</p> : null}
+              <Button
+                variant="secondary"
+                className="mt-4"
+                icon={<Pencil aria-hidden className="size-5" />}
+                onClick={() => setEditingId(c.id)}
+              >
+                Edit details
+              </Button>
+            </>
+          )}
         </Card>
         <Health c={c} />
         <Actions c={c} />
