@@ -9,7 +9,7 @@ import {
   type SortingState,
 } from '@tanstack/react-table';
 import { ArrowDown, ArrowUp, ArrowUpDown, Download, Plus, TriangleAlert, Upload } from 'lucide-react';
-import { CULTURE_FORMS, CULTURE_STATES, type CultureSummaryDto } from '@barmkeep/schemas';
+import { backupLimits, CULTURE_FORMS, CULTURE_STATES, type CultureSummaryDto } from '@barmkeep/schemas';
 import { cultureQueries, type CultureListFilters } from '../../api/cultures/queries';
 import { useImportBackupMutation } from '../../api/cultures/mutations';
 import { isApiError } from '../../api/client';
@@ -108,6 +108,8 @@ function numberParam(v: string | null): number | undefined {
   return Number.isFinite(n) ? n : undefined;
 }
 
+const counted = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+
 /** CSV of the library, a JSON backup of every culture and log entry, and importing such a backup. */
 function ExportAndBackup() {
   const importBackup = useImportBackupMutation();
@@ -133,10 +135,17 @@ function ExportAndBackup() {
             <Download aria-hidden className="size-5" /> Library as CSV
           </a>
           <a className={buttonClasses('secondary')} href="/api/cultures/backup.json" download>
-            <Download aria-hidden className="size-5" /> Full backup (JSON)
+            <Download aria-hidden className="size-5" /> Backup without photos (JSON)
+          </a>
+          <a className={buttonClasses('secondary')} href="/api/cultures/backup.json?photos=1" download>
+            <Download aria-hidden className="size-5" /> Backup with photos (JSON)
           </a>
         </div>
-        <p className="text-sm text-ink-muted">The backup holds every culture and log entry, not the photos.</p>
+        <p className="text-sm text-ink-muted">
+          A backup holds every culture and log entry. With photos it also holds each photo at web size, with its caption
+          and the log entry it belongs to; that file is much larger (an import takes up to{' '}
+          {backupLimits.maxBytes / 1024 / 1024} MB).
+        </p>
         <form onSubmit={onImport} className="space-y-3" aria-label="Import a backup">
           <TextField
             label="Import a backup file"
@@ -157,7 +166,9 @@ function ExportAndBackup() {
         </form>
         {importBackup.isSuccess ? (
           <Notice tone="success" live="polite">
-            Imported {importBackup.data.cultures} cultures and {importBackup.data.events} log entries.
+            Imported {counted(importBackup.data.cultures, 'culture', 'cultures')},{' '}
+            {counted(importBackup.data.events, 'log entry', 'log entries')} and{' '}
+            {counted(importBackup.data.photos, 'photo', 'photos')}.
           </Notice>
         ) : null}
         {err ? (
