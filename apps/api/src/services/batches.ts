@@ -27,13 +27,13 @@ import {
   pitchesOf,
   updateBatchRow,
 } from '../db/queries/planning';
-import { findCultureById } from '../db/queries/cultures';
+import { findCultureById, findCultureForUpdate } from '../db/queries/cultures';
 import { conflict, notFound, validationFailed } from '../lib/errors';
 import { newId } from '../lib/ids';
 import { assertCanEdit, type Actor } from './cultureAccess';
 import { addCultureEvent, createCulture, getLineage } from './cultures';
 import { markPlanPitched, ownPlan } from './planning';
-import type { ServiceContext } from './context';
+import { inTransaction, type ServiceContext } from './context';
 
 const MS_PER_DAY = 86_400_000;
 
@@ -93,25 +93,38 @@ async function present(ctx: ServiceContext, row: BatchRow): Promise<BatchDto> {
 }
 
 /** Record a batch and pitch its cultures: each gets a "pitched" entry in its own log. */
+/**
+ * A batch, its pitches, each culture's "pitched" log entry and the plan's status: one transaction.
+ * The pitched cultures are locked first (in id order, so two batches pitching the same cultures
+ * queue instead of deadlocking) and checked under the lock: a culture used up or discarded by a
+ * request running at the same moment cannot be pitched, and a failure leaves nothing behind.
+ */
 export async function createBatch(ctx: ServiceContext, actor: Actor, input: BatchCreateData): Promise<BatchDto> {
-  if (input.planId) await ownPlan(ctx, actor, input.planId);
-  const parents: CultureRow[] = [];
-  for (const [i, p] of input.pitches.entries()) {
-    const c = await findCultureById(ctx.db, p.cultureId);
-    if (!c || c.ownerUserId !== actor.id) {
-      throw validationFailed({ [`body.pitches.${i}.cultureId`]: ['No culture of yours has this id'] });
+  const row = await inTransaction(ctx, async (t) => {
+    if (input.planId) await ownPlan(t, actor, input.planId);
+    const locked = new Map<string, CultureRow>();
+    for (const id of [...new Set(input.pitches.map((p) => p.cultureId))].sort()) {
+      const c = await findCultureForUpdate(t.db, id);
+      if (c) locked.set(id, c);
     }
-    assertCanEdit(actor, c);
-    if (!IN_USE_STATES.includes(c.state)) {
-      throw conflict('culture_not_kept', `${c.strainName} is ${c.state.replace('_', ' ')}; it cannot be pitched again`);
-    }
-    if (input.brewedAt.getTime() < c.madeAt.getTime() - MS_PER_DAY) {
-      throw validationFailed({ 'body.brewedAt': [`This is before ${c.strainName} was made`] });
-    }
-    parents.push(c);
-  }
-  const row = await ctx.db.transaction(async (tx) => {
-    const b = await insertBatch(tx, {
+    const parents: CultureRow[] = input.pitches.map((p, i) => {
+      const c = locked.get(p.cultureId);
+      if (!c || c.ownerUserId !== actor.id) {
+        throw validationFailed({ [`body.pitches.${i}.cultureId`]: ['No culture of yours has this id'] });
+      }
+      assertCanEdit(actor, c);
+      if (!IN_USE_STATES.includes(c.state)) {
+        throw conflict(
+          'culture_not_kept',
+          `${c.strainName} is ${c.state.replace('_', ' ')}; it cannot be pitched again`,
+        );
+      }
+      if (input.brewedAt.getTime() < c.madeAt.getTime() - MS_PER_DAY) {
+        throw validationFailed({ 'body.brewedAt': [`This is before ${c.strainName} was made`] });
+      }
+      return c;
+    });
+    const b = await insertBatch(t.db, {
       id: newId(),
       ownerUserId: actor.id,
       planId: input.planId ?? null,
@@ -125,7 +138,7 @@ export async function createBatch(ctx: ServiceContext, actor: Actor, input: Batc
       notes: input.notes,
     });
     await insertPitches(
-      tx,
+      t.db,
       input.pitches.map((p, i) => ({
         batchId: b.id,
         cultureId: p.cultureId,
@@ -133,17 +146,17 @@ export async function createBatch(ctx: ServiceContext, actor: Actor, input: Batc
         generation: parents[i]!.generation,
       })),
     );
+    for (const c of parents) {
+      await addCultureEvent(t, actor, c.id, {
+        kind: 'pitched',
+        occurredAt: input.brewedAt,
+        notes: '',
+        data: { batchName: input.name, usedUp: input.usedUp },
+      });
+    }
+    if (input.planId) await markPlanPitched(t, input.planId);
     return b;
   });
-  for (const c of parents) {
-    await addCultureEvent(ctx, actor, c.id, {
-      kind: 'pitched',
-      occurredAt: input.brewedAt,
-      notes: '',
-      data: { batchName: input.name, usedUp: input.usedUp },
-    });
-  }
-  if (input.planId) await markPlanPitched(ctx, input.planId);
   return present(ctx, row);
 }
 
