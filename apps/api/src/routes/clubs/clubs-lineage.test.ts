@@ -165,6 +165,7 @@ describe('privacy: a member cannot read another member’s private culture, note
       `/api/cultures?pageSize=100`,
       `/api/cultures/export.csv`,
       `/api/cultures/backup.json`,
+      `/api/cultures/backup.json?photos=1`,
       `/api/notifications`,
     ];
     for (const path of paths) {
