@@ -57,7 +57,7 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
 
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  app.set('trust proxy', env.TRUST_PROXY);
   app.use(
     pinoHttp({
       logger,

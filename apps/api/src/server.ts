@@ -8,7 +8,7 @@ import { seedDemoIfEmpty, DEMO_PASSWORD } from './db/seed';
 
 const env = loadEnv();
 const logger = createLogger(env);
-const database = connect(env.DATABASE_URL);
+const database = connect(env.DATABASE_URL, { max: env.DATABASE_POOL_MAX });
 
 await runMigrations(database.db);
 logger.info('migrations applied');

@@ -12,7 +12,7 @@ import { startReminderWorker } from './jobs/reminders';
 
 const env = loadEnv();
 const logger = createLogger(env).child({ process: 'worker' });
-const database = connect(env.DATABASE_URL, { max: 4 });
+const database = connect(env.DATABASE_URL, { max: env.WORKER_POOL_MAX });
 
 // The API process applies migrations; wait for them rather than racing it.
 for (let tries = 0; ; tries += 1) {

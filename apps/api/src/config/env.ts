@@ -1,3 +1,4 @@
+import { isIP } from 'node:net';
 import { z } from 'zod';
 
 const EnvSchema = z.object({
@@ -30,6 +31,41 @@ const EnvSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   S3_FORCE_PATH_STYLE: z.enum(['0', '1']).default('1'),
   S3_PREFIX: z.string().optional(),
+  /** Connections in each API process's pool (docs/deploy.md works out the budget). */
+  DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
+  /** Connections in the reminders worker's own pool (pg-boss keeps a pool of its own besides). */
+  WORKER_POOL_MAX: z.coerce.number().int().min(1).max(50).default(4),
+  /**
+   * Which addresses may set X-Forwarded-For/-Proto (Express `trust proxy`): the number of proxy hops
+   * in front, or a comma-separated list of addresses, CIDR ranges and the names loopback,
+   * linklocal, uniquelocal. Default: loopback only.
+   */
+  TRUST_PROXY: z
+    .string()
+    .default('loopback')
+    .transform((v, ctx): number | string[] => {
+      const t = v.trim();
+      if (/^\d+$/.test(t)) return Number(t);
+      const parts = t
+        .split(',')
+        .map((p) => p.trim())
+        .filter(Boolean);
+      const ok = (p: string) => {
+        if (['loopback', 'linklocal', 'uniquelocal'].includes(p)) return true;
+        const [addr, bits, ...rest] = p.split('/');
+        if (rest.length || !addr || !isIP(addr)) return false;
+        return bits === undefined || (/^\d+$/.test(bits) && Number(bits) <= (isIP(addr) === 4 ? 32 : 128));
+      };
+      const bad = parts.filter((p) => !ok(p));
+      if (!parts.length || bad.length) {
+        ctx.addIssue({
+          code: 'custom',
+          message: `expected a hop count or addresses/CIDR ranges/loopback,linklocal,uniquelocal; not ${bad.join(', ') || 'empty'}`,
+        });
+        return z.NEVER;
+      }
+      return parts;
+    }),
 });
 
 export type Env = z.infer<typeof EnvSchema>;
