@@ -92,3 +92,51 @@ test('plan a lager from bottle dregs, log a counted step, pitch, harvest, and se
   await expect(page.getByRole('cell', { name: 'Millrace Helles, spring' })).toBeVisible();
   await shot(page, 'brew-06-generations');
 });
+
+test('call a plan off (after a second, explicit step) and take it up again', async ({ page, baseURL }) => {
+  await signUpThroughForm(page);
+  const made = await page.request.post('/api/cultures', {
+    headers: { Origin: baseURL! },
+    data: {
+      strainName: 'Lantern Row ale yeast',
+      form: 'slurry_washed',
+      origin: { origin: 'gift', fromName: 'A club friend' },
+      amount: { volumeMl: 150 },
+      storageTempC: 3,
+      madeAt: new Date(Date.now() - 5 * 86_400_000).toISOString(),
+    },
+  });
+  expect(made.status()).toBe(201);
+  const planned = await page.request.post('/api/plans', {
+    headers: { Origin: baseURL! },
+    data: {
+      name: 'Lantern Row bitter',
+      purpose: 'batch',
+      cultureIds: [(await made.json()).culture.id],
+      batchVolumeL: 20,
+      ogPlato: 11,
+      beerType: 'ale',
+      brewAt: new Date(Date.now() + 7 * 86_400_000).toISOString(),
+    },
+  });
+  expect(planned.status()).toBe(201);
+  const planId = (await planned.json()).plan.id as string;
+
+  await page.goto(`/plans/${planId}`);
+  await expect(page.getByRole('heading', { name: 'Lantern Row bitter', level: 1 })).toBeVisible();
+  await page.getByRole('button', { name: 'Call this plan off' }).click();
+  // the first click only asks; keeping the plan changes nothing
+  await page.getByRole('button', { name: 'Keep the plan' }).click();
+  expect((await (await page.request.get(`/api/plans/${planId}`)).json()).plan.status).toBe('planned');
+
+  await page.getByRole('button', { name: 'Call this plan off' }).click();
+  await page.getByRole('button', { name: 'Yes, call it off' }).click();
+  await expect(page.getByText('This plan is called off: no reminders come for it.')).toBeVisible();
+  await expect(page.getByText(/^Called off/)).toBeVisible();
+  await expect(page.getByRole('link', { name: 'Pitch into a batch' })).toHaveCount(0);
+  await shot(page, 'brew-02-called-off');
+
+  await page.getByRole('button', { name: 'Take the plan up again' }).click();
+  await expect(page.getByRole('button', { name: 'Call this plan off' })).toBeVisible();
+  expect((await (await page.request.get(`/api/plans/${planId}`)).json()).plan.status).toBe('planned');
+});

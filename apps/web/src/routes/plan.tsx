@@ -6,7 +6,7 @@ import { CircleCheck, Hourglass, Play } from 'lucide-react';
 import type { PlanDto, PlanStepLogDto, UserDto } from '@barmkeep/schemas';
 import { authQueries } from '../api/auth/queries';
 import { planningQueries } from '../api/planning/queries';
-import { useCompleteStepMutation, useStartStepMutation } from '../api/planning/mutations';
+import { useCompleteStepMutation, useSetPlanStatusMutation, useStartStepMutation } from '../api/planning/mutations';
 import { isApiError } from '../api/client';
 import { Button, ButtonLink, Card, FormAlert, Loading, Notice, PageHeader, TextField } from '../components';
 import { Cautions, PlanView } from '../components/planning/PlanView';
@@ -23,7 +23,7 @@ const statusWords: Record<PlanDto['status'], string> = {
   planned: 'Planned',
   in_progress: 'Starter under way',
   pitched: 'Pitched',
-  cancelled: 'Cancelled',
+  cancelled: 'Called off',
 };
 
 interface CountForm {
@@ -182,6 +182,53 @@ function StepLog({ plan, user }: { plan: PlanDto; user: UserDto }) {
   );
 }
 
+/** Call the plan off (with a second, explicit step) or take a called-off plan up again. */
+function PlanStatusControl({ plan }: { plan: PlanDto }) {
+  const setStatus = useSetPlanStatusMutation(plan.id);
+  const [asking, setAsking] = useState(false);
+  if (plan.status === 'pitched') return null;
+  if (plan.status === 'cancelled') {
+    return (
+      <Card className="space-y-3">
+        <p>This plan is called off: no reminders come for it.</p>
+        <Button variant="secondary" onClick={() => setStatus.mutate('planned')} busy={setStatus.isPending}>
+          Take the plan up again
+        </Button>
+        {setStatus.error ? <p className="text-danger">{setStatus.error.message}</p> : null}
+      </Card>
+    );
+  }
+  return (
+    <Card className="space-y-3">
+      {asking ? (
+        <>
+          <p id="call-off-question">
+            Call this plan off? Reminders for its steps and brew day stop; the steps you logged stay in the
+            culture&apos;s history.
+          </p>
+          <div className="flex flex-wrap gap-3" role="group" aria-labelledby="call-off-question">
+            <Button
+              variant="danger"
+              onClick={() => setStatus.mutate('cancelled', { onSuccess: () => setAsking(false) })}
+              busy={setStatus.isPending}
+            >
+              Yes, call it off
+            </Button>
+            <Button variant="secondary" onClick={() => setAsking(false)}>
+              Keep the plan
+            </Button>
+          </div>
+        </>
+      ) : (
+        <Button variant="secondary" onClick={() => setAsking(true)}>
+          Call this plan off
+        </Button>
+      )}
+      {setStatus.error ? <p className="text-danger">{setStatus.error.message}</p> : null}
+    </Card>
+  );
+}
+
 function PlanPage({ plan, user }: { plan: PlanDto; user: UserDto }) {
   const start = useStartStepMutation(plan.id);
   const open = plan.executed.find((s) => !s.completedAt);
@@ -268,6 +315,7 @@ function PlanPage({ plan, user }: { plan: PlanDto; user: UserDto }) {
             Worked out again by the server at <span className="num">{formatWhen(plan.computedAt, user.timeZone)}</span>{' '}
             from what you logged.
           </p>
+          <PlanStatusControl plan={plan} />
         </div>
         <Cautions />
       </div>

@@ -55,6 +55,13 @@ export function useStartStepMutation(planId: string) {
   );
 }
 
+/** Call a plan off ('cancelled': its reminders stop) or take a called-off plan up again ('planned'). */
+export function useSetPlanStatusMutation(planId: string) {
+  return usePlanAction((status: 'planned' | 'cancelled') =>
+    api.post<{ plan: PlanDto }>(`/plans/${encodeURIComponent(planId)}/status`, { status }).then((r) => r.plan),
+  );
+}
+
 export function useCompleteStepMutation(planId: string) {
   return usePlanAction((v: { stepId: string; input: PlanStepCompleteInput }) =>
     api
