@@ -9,7 +9,7 @@ const words = {
   planned: 'Planned',
   in_progress: 'Starter under way',
   pitched: 'Pitched',
-  cancelled: 'Cancelled',
+  cancelled: 'Called off',
 } as const;
 
 export function Component() {
