@@ -162,6 +162,9 @@ export async function createInvitation(
   const token = newSecretToken();
   const expiresAt = new Date(now.getTime() + clubLimits.invitationDays * 86_400_000);
   const invitation = await ctx.db.transaction(async (tx) => {
+    // one open invitation per e-mail: invitations to the club queue on its row, so two sent at the
+    // same instant leave the later one open and the earlier withdrawn
+    await q.lockClub(tx, clubId);
     await q.revokeOpenInvitationsFor(tx, clubId, input.email, now);
     return q.insertInvitation(tx, {
       id: newId(),

@@ -253,6 +253,22 @@ describe('invitations', () => {
     await owner.agent.delete(`/api/clubs/${clubId}/invitations/${second.invitation.id}`).expect(409);
   });
 
+  it('ten invitations to one address sent at the same instant leave exactly one link open', async () => {
+    const { owner, clubId } = await clubWithOwner('Sluice Gate Cultures');
+    const email = buildPerson().email;
+    const sent = await Promise.all(
+      Array.from({ length: 10 }, () =>
+        owner.agent.post(`/api/clubs/${clubId}/invitations`).send({ email, role: 'member' }),
+      ),
+    );
+    expect(sent.every((r) => r.status === 201)).toBe(true);
+    const open = await t.database.db
+      .select()
+      .from(clubInvitations)
+      .where(and(eq(clubInvitations.clubId, clubId), eq(clubInvitations.email, email)));
+    expect(open.filter((i) => i.acceptedAt === null && i.revokedAt === null)).toHaveLength(1);
+  });
+
   it('refuses to invite someone already in the club, with a field message', async () => {
     const { owner, clubId } = await clubWithOwner();
     const res = await owner.agent
