@@ -70,6 +70,26 @@ export const cultures = pgTable(
     measuredViability: real('measured_viability'),
     measuredCellsPerMl: real('measured_cells_per_ml'),
     attentionDueAt: timestamp('attention_due_at', { withTimezone: true }),
+    /**
+     * When core's `viabilityCrossingAt` says projected viability falls to the owner's threshold (null:
+     * never, or not a kept culture). Kept by the reminders pass, not by writers: a trigger sets
+     * `viability_stale` whenever an input changes (form, temperature, made/measured, state, owner) or
+     * the owner's threshold changes, and the pass recomputes stale rows in bulk before it reads this.
+     */
+    viabilityCrossingAt: timestamp('viability_crossing_at', { withTimezone: true }),
+    viabilityStale: boolean('viability_stale').notNull().default(true),
+    /**
+     * What the pass still has to look at. `viability_check_at` is the crossing while its "on the
+     * day" notice is not stored, `storage_check_at` the same for `attention_due_at`; the pass clears
+     * them once that notice is stored (marks.ts), the recompute (viability) and a trigger (when the
+     * due date moves) set them again. Only pending rows are in their indexes, so the range queries
+     * read few rows and the planner's statistics see only what is pending.
+     * `generation_noticed`: the notice at the owner's current generation limit is stored (cleared
+     * when the generation or the limit changes).
+     */
+    viabilityCheckAt: timestamp('viability_check_at', { withTimezone: true }),
+    storageCheckAt: timestamp('storage_check_at', { withTimezone: true }),
+    generationNoticed: boolean('generation_noticed').notNull().default(false),
     /** set when an ancestor was confirmed contaminated */
     suspect: boolean('suspect').notNull().default(false),
     suspectFromCultureId: text('suspect_from_culture_id').references((): AnyPgColumn => cultures.id, {
@@ -84,6 +104,23 @@ export const cultures = pgTable(
     index('cultures_owner_attention_idx').on(t.ownerUserId, t.attentionDueAt, t.id),
     index('cultures_owner_club_idx').on(t.ownerClubId),
     index('cultures_parent_idx').on(t.parentId),
+    index('cultures_viability_check_idx')
+      .on(t.viabilityCheckAt)
+      .where(sql`${t.viabilityCheckAt} is not null`),
+    index('cultures_storage_check_idx')
+      .on(t.storageCheckAt)
+      .where(sql`${t.storageCheckAt} is not null and ${t.state} in ('active', 'stored')`),
+    index('cultures_generation_unnoticed_idx')
+      .on(t.generation)
+      .where(sql`not ${t.generationNoticed} and ${t.state} in ('active', 'stored')`),
+    index('cultures_best_by_idx')
+      .on(t.ownerUserId)
+      .where(
+        sql`${t.origin} = 'purchased' and ${t.form} in ('liquid_pack', 'dry_pack') and ${t.originDetails} ? 'bestBy' and ${t.state} in ('active', 'stored')`,
+      ),
+    index('cultures_viability_stale_idx')
+      .on(t.id)
+      .where(sql`${t.viabilityStale}`),
     check('cultures_not_own_parent', sql`${t.parentId} is null or ${t.parentId} <> ${t.id}`),
     check('cultures_generation_range', sql`${t.generation} >= 0 and ${t.generation} <= 1000`),
   ],

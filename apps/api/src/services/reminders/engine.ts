@@ -38,5 +38,6 @@ export async function runReminderPass(
     all.push(...found);
   }
   const inserted = await insertNoticesBulk(ctx.db, all, ctx.now);
+  for (const rule of rules) await rule.afterStore?.(ctx);
   return { candidates: all.length, inserted, byRule };
 }

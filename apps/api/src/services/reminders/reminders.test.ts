@@ -10,6 +10,8 @@ import { runReminderTick } from './tick';
 import type { DeliveryDeps } from './delivery';
 import { startReminderWorker, REMINDER_TICK_QUEUE } from '../../jobs/reminders';
 import { createLogger } from '../../lib/logger';
+import { refreshViabilityCrossings } from './crossings';
+import type { Db } from '../../db/client';
 
 const DAY = 86_400_000;
 const HOUR = 3_600_000;
@@ -182,6 +184,159 @@ describe('editing a culture re-evaluates', () => {
     await tick(new Date(late.getTime() - late.getUTCHours() * HOUR + 8 * HOUR));
     expect((await noticesOf(user.id, 'culture.viability'))[0]!.email_state).toBe('skipped');
     expect(mailsTo(person.email)).toHaveLength(0);
+  });
+});
+
+async function crossingRow(id: string) {
+  const { rows } = await t.database.db.execute<{
+    crossing: Date | null;
+    stale: boolean;
+    check_at: Date | null;
+  }>(
+    sql`select viability_crossing_at as crossing, viability_stale as stale, viability_check_at as check_at from cultures where id = ${id}`,
+  );
+  const r = rows[0]!;
+  return { ...r, crossing: r.crossing && new Date(r.crossing), check_at: r.check_at && new Date(r.check_at) };
+}
+
+const packCrossing = (anchorAt: Date, storageTempC: number, threshold = 0.5, startViability?: number) =>
+  viabilityCrossingAt({
+    form: 'liquid_pack',
+    anchorAt,
+    storageTempC,
+    threshold,
+    ...(startViability !== undefined ? { startViability } : {}),
+  }).at!;
+
+describe('stored crossings', () => {
+  it('a new temperature marks the crossing stale, and the next pass stores and uses the new one', async () => {
+    const made = new Date('2025-02-03T09:00:00Z');
+    t.clock.now = new Date(made.getTime() + HOUR);
+    const { agent, user } = await keeper();
+    const id = await createCulture(agent, pack(made));
+    expect((await crossingRow(id)).stale).toBe(true);
+    await tick(new Date(made.getTime() + 10 * DAY));
+    let row = await crossingRow(id);
+    expect(row.stale).toBe(false);
+    expect(row.crossing!.getTime()).toBe(packCrossing(made, 4).getTime());
+
+    t.clock.now = new Date(made.getTime() + 10 * DAY);
+    await agent
+      .post(`/api/cultures/${id}/events`)
+      .send({ kind: 'moved', data: { storageTempC: 20, locationLabel: 'Garage shelf' } })
+      .expect(201);
+    expect((await crossingRow(id)).stale).toBe(true);
+    const warm = packCrossing(made, 20);
+    expect(warm.getTime()).toBeLessThan(packCrossing(made, 4).getTime());
+    // a pass five days before the warm crossing warns; at 4 °C it would have been two months away
+    await tick(new Date(warm.getTime() - 5 * DAY));
+    row = await crossingRow(id);
+    expect(row.crossing!.getTime()).toBe(warm.getTime());
+    const [n] = await noticesOf(user.id, 'culture.viability');
+    expect(n!.dedupe_key).toMatch(/^50:warn:/);
+    expect(n!.title).toMatch(/drops below 50% viable/);
+  });
+
+  it('catches a write that bypasses the culture service (plain SQL)', async () => {
+    const made = new Date('2025-02-03T09:00:00Z');
+    t.clock.now = new Date(made.getTime() + HOUR);
+    const { agent } = await keeper();
+    const id = await createCulture(agent, pack(made));
+    await tick(new Date(made.getTime() + DAY));
+    await t.database.db.execute(sql`update cultures set made_at = made_at - interval '30 days' where id = ${id}`);
+    expect((await crossingRow(id)).stale).toBe(true);
+    await tick(new Date(made.getTime() + DAY));
+    expect((await crossingRow(id)).crossing!.getTime()).toBe(
+      packCrossing(new Date(made.getTime() - 30 * DAY), 4).getTime(),
+    );
+    // an edit that changes no input leaves the stored crossing alone
+    await t.database.db.execute(sql`update cultures set notes = 'relabelled' where id = ${id}`);
+    expect((await crossingRow(id)).stale).toBe(false);
+  });
+
+  it('a new threshold recomputes every crossing of that person, and only theirs', async () => {
+    const made = new Date('2025-01-06T12:00:00Z');
+    t.clock.now = new Date(made.getTime() + HOUR);
+    const a = await keeper();
+    const b = await keeper();
+    const ids = [
+      await createCulture(a.agent, pack(made)),
+      await createCulture(a.agent, pack(made, { storageTempC: 8 })),
+    ];
+    const other = await createCulture(b.agent, pack(made));
+    await tick(new Date(made.getTime() + DAY));
+    await a.agent.patch('/api/reminder-preferences').send({ viabilityThresholdPct: 70 }).expect(200);
+    for (const id of ids) expect((await crossingRow(id)).stale).toBe(true);
+    expect((await crossingRow(other)).stale).toBe(false);
+    await tick(new Date(made.getTime() + DAY));
+    expect((await crossingRow(ids[0]!)).crossing!.getTime()).toBe(packCrossing(made, 4, 0.7).getTime());
+    expect((await crossingRow(ids[1]!)).crossing!.getTime()).toBe(packCrossing(made, 8, 0.7).getTime());
+    expect((await crossingRow(other)).crossing!.getTime()).toBe(packCrossing(made, 4, 0.5).getTime());
+    // and the notice fires at the 70% crossing
+    await tick(new Date(packCrossing(made, 4, 0.7).getTime() + HOUR));
+    const keys = (await noticesOf(a.user.id, 'culture.viability')).map((n) =>
+      n.dedupe_key.split(':').slice(0, 2).join(':'),
+    );
+    expect(keys).toContain('70:due');
+  });
+
+  it('an edit landing between the read and the write keeps the row stale for the next pass', async () => {
+    const made = new Date('2025-02-03T09:00:00Z');
+    t.clock.now = new Date(made.getTime() + HOUR);
+    const { agent, user } = await keeper();
+    const id = await createCulture(agent, pack(made));
+    const db = t.database.db;
+    let edited = false;
+    // the first statement of the recompute is the read; the edit commits right after it
+    const racing = new Proxy(db, {
+      get(target, prop, receiver) {
+        if (prop !== 'execute') return Reflect.get(target, prop, receiver);
+        return async (query: Parameters<Db['execute']>[0]) => {
+          const result = await target.execute(query);
+          if (!edited) {
+            edited = true;
+            await target.execute(sql`update cultures set storage_temp_c = 12 where id = ${id}`);
+          }
+          return result;
+        };
+      },
+    }) as Db;
+    expect(await refreshViabilityCrossings(racing, [user.id])).toBe(0);
+    expect(edited).toBe(true);
+    expect((await crossingRow(id)).stale).toBe(true);
+    expect(await refreshViabilityCrossings(db, [user.id])).toBe(1);
+    expect((await crossingRow(id)).crossing!.getTime()).toBe(packCrossing(made, 12).getTime());
+  });
+
+  it('a fresh count re-anchors the projection: the new crossing fires though the old one was announced', async () => {
+    const made = new Date('2025-01-06T12:00:00Z');
+    t.clock.now = new Date(made.getTime() + HOUR);
+    const { agent, user } = await keeper();
+    const id = await createCulture(agent, pack(made));
+    const first = packCrossing(made, 4);
+    await tick(new Date(first.getTime() + HOUR));
+    expect((await noticesOf(user.id, 'culture.viability')).map((n) => n.dedupe_key.split(':')[1])).toEqual(['due']);
+    // the due notice is stored: the culture is out of the pending index
+    expect((await crossingRow(id)).check_at).toBeNull();
+    await tick(new Date(first.getTime() + 2 * HOUR));
+    expect(await noticesOf(user.id, 'culture.viability')).toHaveLength(1);
+
+    const countedAt = new Date(first.getTime() + DAY);
+    t.clock.now = countedAt;
+    await agent
+      .post(`/api/cultures/${id}/events`)
+      .send({ kind: 'counted', data: { cellsCounted: 300, squaresCounted: 5, dilution: 100, live: 90, dead: 10 } })
+      .expect(201);
+    await tick(new Date(countedAt.getTime() + HOUR));
+    const second = packCrossing(countedAt, 4, 0.5, 0.9);
+    const row = await crossingRow(id);
+    expect(row.crossing!.getTime()).toBe(second.getTime());
+    expect(row.check_at!.getTime()).toBe(second.getTime());
+    await tick(new Date(second.getTime() - 3 * DAY));
+    await tick(new Date(second.getTime() + HOUR));
+    const notices = await noticesOf(user.id, 'culture.viability');
+    expect(notices.map((n) => n.dedupe_key.split(':')[1])).toEqual(['due', 'warn', 'due']);
+    expect(new Set(notices.map((n) => n.dedupe_key.split(':')[2])).size).toBe(2);
   });
 });
 

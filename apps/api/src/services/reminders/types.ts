@@ -16,4 +16,9 @@ export interface RuleRunContext {
 export interface ReminderRule {
   kind: string;
   collect(ctx: RuleRunContext): Promise<NewNotice[]>;
+  /**
+   * After the engine stored this pass's notices: mark, in one set-based statement, the subjects
+   * whose final notice is now stored, so later passes skip them (see crossings.ts).
+   */
+  afterStore?(ctx: RuleRunContext): Promise<void>;
 }

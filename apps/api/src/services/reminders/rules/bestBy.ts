@@ -3,7 +3,7 @@ import type { CultureForm } from '@barmkeep/core';
 import type { NewNotice } from '../../../db/queries/notifications';
 import type { ReminderRule } from '../types';
 import { capitalize, cultureWords } from '../format';
-import { cultureScope, noticeExists, pref } from '../sql';
+import { cultureScope, noticeExists, noticeStored, pref } from '../sql';
 
 const KIND = 'culture.best_by';
 
@@ -32,7 +32,7 @@ export const bestByRule: ReminderRule = {
     const { rows } = await db.execute<Row>(sql`
       select c.id, c.owner_user_id as user_id, c.strain_name, c.form, c.location_label,
         to_char(${bestBy}, 'YYYY-MM-DD') as best_by, (${bestBy} - ${localToday}) as days_left,
-        ${noticeExists(KIND, key('warn'))} as warn_sent
+        ${noticeStored(KIND, key('warn'))} as warn_sent
       ${scope.from}
       where ${scope.where} and c.origin = 'purchased' and c.form in ('liquid_pack', 'dry_pack')
         and c.origin_details ? 'bestBy'

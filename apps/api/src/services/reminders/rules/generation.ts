@@ -4,6 +4,7 @@ import type { NewNotice } from '../../../db/queries/notifications';
 import type { ReminderRule } from '../types';
 import { capitalize, cultureWords } from '../format';
 import { cultureScope, noticeExists, pref } from '../sql';
+import { lowestGenerationLimit, markGenerationNoticed } from '../marks';
 
 const KIND = 'culture.generation';
 
@@ -17,7 +18,12 @@ interface Row extends Record<string, unknown> {
   generation_limit: number;
 }
 
-/** A kept culture's generation reaches the person's limit (default 10, from core `generationAdvice`). All in SQL. */
+/**
+ * A kept culture's generation reaches the person's limit (default 10, from core `generationAdvice`).
+ * All in SQL; once the notice at the current limit is stored the row is marked
+ * (`generation_noticed`, cleared when the generation or the limit changes) and the partial index
+ * on unmarked kept cultures leaves it out.
+ */
 export const generationRule: ReminderRule = {
   kind: KIND,
   async collect({ db, userIds }) {
@@ -26,7 +32,8 @@ export const generationRule: ReminderRule = {
       select c.id, c.owner_user_id as user_id, c.strain_name, c.form, c.location_label, c.generation,
         ${pref.generationLimit} as generation_limit
       ${scope.from}
-      where ${scope.where} and c.generation >= ${pref.generationLimit}
+      where not c.generation_noticed and c.generation >= ${lowestGenerationLimit}
+        and ${scope.where} and c.generation >= ${pref.generationLimit}
         and not ${noticeExists(KIND, sql`${pref.generationLimit}::text`)}`);
     return rows.map((r): NewNotice => ({
       userId: r.user_id,
@@ -39,4 +46,5 @@ export const generationRule: ReminderRule = {
       dueAt: null,
     }));
   },
+  afterStore: ({ db, userIds }) => markGenerationNoticed(db, userIds),
 };

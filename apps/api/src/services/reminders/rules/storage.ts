@@ -3,7 +3,8 @@ import { maxStorageDays, type CultureForm, type StorageAction } from '@barmkeep/
 import type { NewNotice } from '../../../db/queries/notifications';
 import type { ReminderRule } from '../types';
 import { asDate, capitalize, cultureWords, dayWords, epochKey, whenWords } from '../format';
-import { cultureScope, epochKeySql, noticeExists, pref } from '../sql';
+import { cultureScope, epochKeySql, noticeExists, noticeStored, pref, warnHorizon } from '../sql';
+import { clearStoragePending, storageDueKey } from '../marks';
 
 const KIND = 'culture.storage';
 
@@ -31,7 +32,9 @@ interface Row extends Record<string, unknown> {
  * The maximum storage time for the form and temperature (core `maxStorageDays`, kept by the
  * culture library in `cultures.attention_due_at`) is near or past. Entirely in SQL: only cultures
  * within their warning window whose "on the day" notice is not stored come back. Moving a culture
- * changes its due date and so its key: the new date is announced.
+ * changes its due date and so its key: the new date is announced. Once the "on the day" notice is
+ * stored the pass clears `storage_check_at` (marks.ts; a trigger sets it again when the due date
+ * moves), so the range query on that column's index leaves the culture out.
  */
 export const storageRule: ReminderRule = {
   kind: KIND,
@@ -40,15 +43,17 @@ export const storageRule: ReminderRule = {
     const localToday = sql`(${now}::timestamptz at time zone u.time_zone)::date`;
     const dueLocal = sql`(c.attention_due_at at time zone u.time_zone)::date`;
     const key = (stage: string) => sql`${`${stage}:`} || ${epochKeySql(sql`c.attention_due_at`)}`;
+    const horizon = await warnHorizon(db, now, userIds);
     const { rows } = await db.execute<Row>(sql`
       select c.id, c.owner_user_id as user_id, c.strain_name, c.form, c.location_label, c.storage_temp_c,
         c.attention_due_at as due_at, u.time_zone, (${dueLocal} - ${localToday}) as days_left,
-        ${noticeExists(KIND, key('warn'))} as warn_sent
+        ${noticeStored(KIND, key('warn'))} as warn_sent
       ${scope.from}
-      where ${scope.where} and c.attention_due_at is not null
+      where c.storage_check_at < ${horizon}::timestamptz
         and c.attention_due_at < ${now}::timestamptz + make_interval(days => ${pref.warnDays} + 2)
+        and ${scope.where}
         and ${dueLocal} - ${pref.warnDays} <= ${localToday}
-        and not ${noticeExists(KIND, key('due'))}`);
+        and not ${noticeExists(KIND, storageDueKey)}`);
 
     const notices: NewNotice[] = [];
     for (const r of rows) {
@@ -74,4 +79,5 @@ export const storageRule: ReminderRule = {
     }
     return notices;
   },
+  afterStore: ({ db, now, userIds }) => clearStoragePending(db, now, userIds),
 };

@@ -1,12 +1,13 @@
 import { sql } from 'drizzle-orm';
-import { viabilityCrossingAt, type CultureForm } from '@barmkeep/core';
+import type { CultureForm } from '@barmkeep/core';
 import type { NewNotice } from '../../../db/queries/notifications';
 import type { ReminderRule } from '../types';
 import { asDate, capitalize, cultureWords, calendarDaysUntil, dayWords, epochKey, whenWords } from '../format';
-import { cultureScope, epochKeySql, noticeExists, pref } from '../sql';
+import { anchorSql, cultureScope, epochKeySql, noticeExists, noticeStored, pref, warnHorizon } from '../sql';
+import { refreshViabilityCrossings } from '../crossings';
+import { clearViabilityPending, viabilityDueKey } from '../marks';
 
 const KIND = 'culture.viability';
-const DAY = 86_400_000;
 
 interface Row extends Record<string, unknown> {
   id: string;
@@ -16,7 +17,7 @@ interface Row extends Record<string, unknown> {
   location_label: string;
   storage_temp_c: number;
   anchor_at: Date | string;
-  start_viability: number | null;
+  crossing_at: Date | string;
   measured: boolean;
   time_zone: string;
   threshold_pct: number;
@@ -28,52 +29,52 @@ interface Row extends Record<string, unknown> {
  * Projected viability falls to the person's threshold (default 50%): a warning `warnDays` calendar
  * days before in their time zone, and a notice on the day. The projection is anchored at the latest
  * stain count, else the made/harvest date; a new anchor (a fresh count) starts a new pair of notices.
- * The SQL selects, in one query, every kept culture whose "on the day" notice for its current anchor
- * and threshold is not stored yet; core's `viabilityCrossingAt` does the math for each row.
+ *
+ * Core's `viabilityCrossingAt` does the math, once per change rather than once per pass: the pass
+ * first brings stale `cultures.viability_crossing_at` up to date (crossings.ts; a trigger marks a
+ * row stale when an input or the owner's threshold changes), then one indexed range query on
+ * `viability_check_at` (the crossing, while its "on the day" notice is not stored) returns the kept
+ * cultures whose crossing is within the warning window or past. Once that notice is stored the
+ * pass clears `viability_check_at` (marks.ts), and the culture is out of the index until a change.
  */
 export const viabilityRule: ReminderRule = {
   kind: KIND,
   async collect({ db, now, userIds }) {
+    await refreshViabilityCrossings(db, userIds);
     const scope = cultureScope(KIND, userIds);
-    const anchor = sql`(case when c.measured_at is not null and c.measured_viability is not null then c.measured_at else c.made_at end)`;
-    const key = (stage: string) => sql`${pref.threshold}::text || ${`:${stage}:`} || ${epochKeySql(anchor)}`;
+    const key = (stage: string) => sql`${pref.threshold}::text || ${`:${stage}:`} || ${epochKeySql(anchorSql)}`;
+    const horizon = await warnHorizon(db, now, userIds);
     const { rows } = await db.execute<Row>(sql`
       select c.id, c.owner_user_id as user_id, c.strain_name, c.form, c.location_label, c.storage_temp_c,
-        ${anchor} as anchor_at,
-        case when c.measured_at is not null and c.measured_viability is not null then c.measured_viability end as start_viability,
+        ${anchorSql} as anchor_at, c.viability_crossing_at as crossing_at,
         (c.measured_at is not null and c.measured_viability is not null) as measured,
         u.time_zone, ${pref.threshold} as threshold_pct, ${pref.warnDays} as warn_days,
-        ${noticeExists(KIND, key('warn'))} as warn_sent
+        ${noticeStored(KIND, key('warn'))} as warn_sent
       ${scope.from}
-      where ${scope.where} and not ${noticeExists(KIND, key('due'))}`);
+      where c.viability_check_at < ${horizon}::timestamptz
+        and c.viability_check_at < ${now}::timestamptz + make_interval(days => ${pref.warnDays} + 2)
+        and not c.viability_stale and ${scope.where}
+        and not ${noticeExists(KIND, viabilityDueKey)}`);
 
     const notices: NewNotice[] = [];
     for (const r of rows) {
       const anchorAt = asDate(r.anchor_at);
-      const threshold = r.threshold_pct / 100;
-      const crossing = viabilityCrossingAt({
-        form: r.form,
-        anchorAt,
-        storageTempC: r.storage_temp_c,
-        threshold,
-        ...(r.start_viability != null ? { startViability: r.start_viability } : {}),
-      });
-      if (!crossing.at) continue;
-      // far from the window: no need to work out local calendar days (they differ from elapsed days by under 2)
-      if (crossing.at.getTime() - now.getTime() > (r.warn_days + 2) * DAY) continue;
-      const daysLeft = calendarDaysUntil(crossing.at, now, r.time_zone);
+      const crossingAt = asDate(r.crossing_at);
+      // core puts the crossing at the anchor itself when the start is already at or below the threshold
+      const alreadyBelow = crossingAt.getTime() === anchorAt.getTime();
+      const daysLeft = calendarDaysUntil(crossingAt, now, r.time_zone);
       const stage = daysLeft <= 0 ? 'due' : daysLeft <= r.warn_days ? 'warn' : null;
       if (!stage || (stage === 'warn' && r.warn_sent)) continue;
       const what = cultureWords({ strainName: r.strain_name, form: r.form, locationLabel: r.location_label });
       const pct = `${r.threshold_pct}%`;
       const basis = r.measured ? 'your latest stain count' : 'the date it was made or harvested';
       let title: string;
-      if (stage === 'warn' || crossing.at > now) {
-        title = `${capitalize(what)} drops below ${pct} viable ${whenWords(crossing.at, now, r.time_zone)}`;
-      } else if (crossing.alreadyBelow) {
+      if (stage === 'warn' || crossingAt > now) {
+        title = `${capitalize(what)} drops below ${pct} viable ${whenWords(crossingAt, now, r.time_zone)}`;
+      } else if (alreadyBelow) {
         title = `${capitalize(what)} is below ${pct} viable`;
       } else {
-        title = `${capitalize(what)} fell below ${pct} viable on ${dayWords(crossing.at, now, r.time_zone)}`;
+        title = `${capitalize(what)} fell below ${pct} viable on ${dayWords(crossingAt, now, r.time_zone)}`;
       }
       const body =
         stage === 'warn'
@@ -87,9 +88,10 @@ export const viabilityRule: ReminderRule = {
         title,
         body,
         link: `/cultures/${r.id}`,
-        dueAt: crossing.at,
+        dueAt: crossingAt,
       });
     }
     return notices;
   },
+  afterStore: ({ db, now, userIds }) => clearViabilityPending(db, now, userIds),
 };
