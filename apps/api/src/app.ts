@@ -30,6 +30,7 @@ import { calendarFeedRouter, calendarFileRouter } from './routes/calendar/calend
 import { labelsRouter } from './routes/labels/labels';
 import { culturePhotosRouter } from './routes/cultures/photos';
 import { createStorage, type ObjectStorage } from './storage';
+import { webAppRouter } from './web/webApp';
 
 export interface AppDeps {
   env: Env;
@@ -109,8 +110,7 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
 
   const webDist = env.WEB_DIST ?? path.resolve(import.meta.dirname, '../../web/dist');
   if (env.NODE_ENV === 'production' && existsSync(path.join(webDist, 'index.html'))) {
-    app.use(express.static(webDist, { index: false, maxAge: '1h' }));
-    app.get(/^\/(?!api\/).*/, (_req, res) => res.sendFile(path.join(webDist, 'index.html')));
+    app.use(webAppRouter(webDist));
   }
 
   app.use(errorHandler);
