@@ -5,6 +5,9 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { buildTestApp, signUp, type TestApp } from '../../../test/helpers';
 import { buildDregs, buildReculture, buildSlurry } from '../../../test/cultureFactories';
+import { importBackup } from '../../services/cultureBackup';
+import type { ServiceContext } from '../../services/context';
+import { localDiskStorage } from '../../storage/localDisk';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -295,6 +298,22 @@ describe('backup with photos', () => {
 
     expect((await other.get('/api/cultures').expect(200)).body.total).toBe(0);
     expect((await stored()).length).toBe(before);
+  });
+
+  it('removes the images it stored when the database then refuses the rows', async () => {
+    const { agent } = await keeperWithPhotos();
+    const backup = await backupOf(agent, '?photos=1');
+    const emptyDir = await mkdtemp(path.join(tmpdir(), 'barmkeep-backup-refused-'));
+    try {
+      const ctx = { db: tp.database.db, now: () => new Date() } as unknown as ServiceContext;
+      // an actor with no account row: every image passes, then the first insert breaks a foreign key
+      await expect(
+        importBackup(ctx, localDiskStorage(emptyDir), { id: 'u_no_such_person' }, Buffer.from(JSON.stringify(backup))),
+      ).rejects.toThrow();
+      expect((await readdir(emptyDir, { recursive: true, withFileTypes: true })).filter((f) => f.isFile())).toEqual([]);
+    } finally {
+      await rm(emptyDir, { recursive: true, force: true });
+    }
   });
 
   it('still imports a version 1 backup, which has no photos', async () => {
