@@ -31,7 +31,7 @@ export function MainNav({ className }: { className?: string }) {
                 to={item.to}
                 aria-current={current ? 'page' : undefined}
                 className={cx(
-                  'inline-flex min-h-11 items-center rounded-md px-3 font-medium',
+                  'inline-flex min-h-11 items-center rounded-md px-2.5 font-medium whitespace-nowrap sm:px-3',
                   current
                     ? 'bg-accent-soft text-accent-strong underline decoration-2 underline-offset-6'
                     : 'text-ink-muted hover:bg-paper-sunk hover:text-ink',
@@ -99,7 +99,7 @@ export function Component() {
             </div>
           </div>
           {/* On phones the navigation and the name get a row of their own. */}
-          <div className="flex items-center justify-between gap-3 pb-2 sm:hidden">
+          <div className="flex flex-wrap items-center justify-between gap-x-3 pb-2 sm:hidden">
             <MainNav />
             <PersonName name={user.name} email={user.email} />
           </div>

@@ -99,6 +99,9 @@ function ActionCell({
   );
 }
 
+/** Columns left out on narrow screens (the e-mail moves under the name). */
+const narrowHidden: Record<string, string> = { email: 'hidden md:table-cell', joinedAt: 'hidden sm:table-cell' };
+
 export function Component() {
   const club = useClub();
   const { data: me } = useQuery(authQueries.me());
@@ -111,10 +114,16 @@ export function Component() {
       column.accessor('name', {
         header: 'Name',
         cell: (info) => (
-          <span className="font-medium">
-            {info.getValue()}
-            {info.row.original.userId === me?.id ? <span className="ml-1 text-sm text-ink-muted">(you)</span> : null}
-          </span>
+          <>
+            <span className="font-medium">
+              {info.getValue()}
+              {info.row.original.userId === me?.id ? <span className="ml-1 text-sm text-ink-muted">(you)</span> : null}
+            </span>
+            {/* on a narrow screen the e-mail goes under the name instead of a column of its own */}
+            {info.row.original.email ? (
+              <span className="block text-sm break-all text-ink-muted md:hidden">{info.row.original.email}</span>
+            ) : null}
+          </>
         ),
       }),
       column.accessor('role', {
@@ -182,7 +191,11 @@ export function Component() {
             {table.getHeaderGroups().map((group) => (
               <tr key={group.id}>
                 {group.headers.map((header) => (
-                  <th key={header.id} scope="col" className="px-3 py-2 font-medium">
+                  <th
+                    key={header.id}
+                    scope="col"
+                    className={`px-3 py-2 font-medium ${narrowHidden[header.column.id] ?? ''}`}
+                  >
                     {flexRender(header.column.columnDef.header, header.getContext())}
                   </th>
                 ))}
@@ -193,7 +206,7 @@ export function Component() {
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="border-b border-rule last:border-0">
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-2 align-middle">
+                  <td key={cell.id} className={`px-3 py-2 align-middle ${narrowHidden[cell.column.id] ?? ''}`}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
                   </td>
                 ))}
