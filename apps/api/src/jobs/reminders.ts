@@ -1,4 +1,5 @@
 import PgBoss from 'pg-boss';
+import pg from 'pg';
 import type { Logger } from 'pino';
 import type { DeliveryDeps } from '../services/reminders/delivery';
 import { runReminderTick } from '../services/reminders/tick';
@@ -7,6 +8,13 @@ import { runReminderTick } from '../services/reminders/tick';
 export const REMINDER_TICK_QUEUE = 'reminders-tick';
 /** A pass for a few people right away (after they edit a culture or a plan). */
 export const REMINDER_USERS_QUEUE = 'reminders-users';
+/** NOTIFY channel the database triggers use when a reminder input changes (payload: the person's id). */
+export const REMINDER_INPUTS_CHANNEL = 'reminder_inputs';
+/**
+ * A person's re-check is debounced to one pass per this many seconds: the first change in a slot is
+ * checked at once, later ones in the same slot by one more pass at the start of the next slot.
+ */
+export const RECHECK_DEBOUNCE_SECONDS = 10;
 
 export interface ReminderWorkerOptions {
   databaseUrl: string;
@@ -17,6 +25,8 @@ export interface ReminderWorkerOptions {
   cron?: string;
   /** register the cron schedule (tests send jobs themselves) */
   schedule?: boolean;
+  /** LISTEN for changed reminder inputs and enqueue a debounced pass per person (default on) */
+  listen?: boolean;
   pollingIntervalSeconds?: number;
 }
 
@@ -60,8 +70,86 @@ export async function startReminderWorker(opts: ReminderWorkerOptions): Promise<
     if (!job) return;
     await runReminderTick(opts.deps, opts.now(), job.data.userIds);
   });
+  const listener = opts.listen === false ? null : await listenForInputChanges(opts, boss);
   return {
     boss,
-    stop: () => boss.stop({ graceful: true, wait: true, timeout: 10_000 }),
+    async stop() {
+      await listener?.stop();
+      await boss.stop({ graceful: true, wait: true, timeout: 10_000 });
+    },
+  };
+}
+
+/** Enqueue a debounced pass for one person (singleton per person and slot, see RECHECK_DEBOUNCE_SECONDS). */
+export function enqueueRecheck(boss: PgBoss, userId: string) {
+  return boss.sendDebounced(REMINDER_USERS_QUEUE, { userIds: [userId] }, {}, RECHECK_DEBOUNCE_SECONDS, userId);
+}
+
+/**
+ * The triggers on cultures and notification_preferences send NOTIFY reminder_inputs with the owner's
+ * id when something a rule reads changes, whichever code wrote it; PostgreSQL delivers it when the
+ * transaction commits, so the pass sees the change. This keeps one connection listening and turns
+ * each notification into a debounced job. A notification sent while no worker listens is lost; the
+ * scheduled pass still finds the change within its interval. With several workers each enqueues;
+ * the singleton key keeps that to one job per person per slot (plus at most one for the next slot).
+ */
+async function listenForInputChanges(opts: ReminderWorkerOptions, boss: PgBoss): Promise<{ stop(): Promise<void> }> {
+  let client: pg.Client | null = null;
+  let stopped = false;
+  let retryMs = 500;
+  let timer: NodeJS.Timeout | null = null;
+
+  const reconnectLater = () => {
+    if (stopped || timer) return;
+    timer = setTimeout(() => {
+      timer = null;
+      void open();
+    }, retryMs);
+    retryMs = Math.min(retryMs * 2, 30_000);
+  };
+
+  async function open() {
+    const c = new pg.Client({ connectionString: opts.databaseUrl });
+    client = c;
+    c.on('error', (err) => {
+      opts.logger.warn({ err }, 'reminder inputs listener lost its connection');
+      if (client !== c) return;
+      client = null;
+      void c.end().catch(() => {});
+      reconnectLater();
+    });
+    c.on('end', () => {
+      if (client !== c) return;
+      client = null;
+      reconnectLater();
+    });
+    c.on('notification', (msg) => {
+      if (msg.channel !== REMINDER_INPUTS_CHANNEL || !msg.payload) return;
+      enqueueRecheck(boss, msg.payload).catch((err: unknown) =>
+        opts.logger.warn({ err, userId: msg.payload }, 'could not enqueue a reminder re-check'),
+      );
+    });
+    try {
+      await c.connect();
+      await c.query(`LISTEN ${REMINDER_INPUTS_CHANNEL}`);
+      retryMs = 500;
+      if (stopped) await c.end();
+    } catch (err) {
+      opts.logger.warn({ err }, 'reminder inputs listener could not connect');
+      if (client === c) client = null;
+      void c.end().catch(() => {});
+      reconnectLater();
+    }
+  }
+
+  await open();
+  return {
+    async stop() {
+      stopped = true;
+      if (timer) clearTimeout(timer);
+      const c = client;
+      client = null;
+      await c?.end().catch(() => {});
+    },
   };
 }

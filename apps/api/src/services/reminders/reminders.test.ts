@@ -385,6 +385,8 @@ describe('two workers', () => {
           now: () => now,
           logger,
           schedule: false,
+          // other test files change cultures in this database meanwhile; recheck.test.ts covers listening
+          listen: false,
           pollingIntervalSeconds: 0.5,
         }),
       ),
