@@ -98,9 +98,12 @@ test('invite, sign up from the link, ask for a strain, accept, confirm receipt, 
   await guest.getByRole('link', { name: 'Open your new culture' }).click();
   await expect(guest.getByRole('heading', { name: strain, level: 1 })).toBeVisible();
   const recipientCultureUrl = guest.url();
+  // its page names where it came from and who keeps that, without a link into the keeper's records
+  await expect(guest.getByText(`${strain}, kept by ${owner.name}`)).toBeVisible();
+  await shot(guest, 'clubs-handoff-05b-grown-from');
 
   // The lineage shows both owners; the keeper's culture is the strain's path, not a way into their records.
-  await guest.getByRole('link', { name: 'Lineage' }).click();
+  await guest.getByRole('link', { name: 'Lineage', exact: true }).click();
   await expect(guest.getByRole('treeitem')).toHaveCount(2);
   const keepers = guest.getByRole('region', { name: 'Keepers in this lineage' });
   await expect(keepers).toContainText(owner.name);

@@ -488,7 +488,18 @@ export interface CultureSummaryDto {
   ownerUserId: string;
 }
 
+/** A culture's parent as the viewer may see it: `strainName` null when it is not shared with them. */
+export interface CultureParentDto {
+  id: string;
+  strainName: string | null;
+  /** the viewer may open its page */
+  openable: boolean;
+  /** a fellow member's culture: who keeps it */
+  keeperName: string | null;
+}
+
 export interface CultureDetailDto extends CultureSummaryDto {
+  parent: CultureParentDto | null;
   originDetails: CultureOriginDetails;
   amount: CultureAmount;
   notes: string;

@@ -2,6 +2,7 @@ import type {
   CultureDetailDto,
   CultureEventDto,
   CultureHealthDto,
+  CultureParentDto,
   CulturePhotoDto,
   CultureSummaryDto,
   LineageNodeDto,
@@ -56,6 +57,7 @@ export function presentCultureDetail(
   c: CultureRow,
   now: Date,
   extra: {
+    parent: CultureParentDto | null;
     health: CultureHealthDto;
     stateChangedByName: string | null;
     suspectFrom: { id: string; strainName: string } | null;
@@ -63,6 +65,7 @@ export function presentCultureDetail(
 ): CultureDetailDto {
   return {
     ...presentCultureSummary(c, now, extra.health.viability),
+    parent: extra.parent,
     originDetails: c.originDetails,
     amount: c.amount,
     notes: c.notes,

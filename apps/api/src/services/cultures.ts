@@ -11,7 +11,12 @@ import {
 } from '@barmkeep/schemas';
 import { hemocytometerCount, viabilityFromStain, SQUARE_VOLUME_ML } from '@barmkeep/core';
 import type { z } from 'zod';
-import type { CultureSplitSchema, CultureStateChangeSchema, CultureQuarantineSchema } from '@barmkeep/schemas';
+import type {
+  CultureParentDto,
+  CultureSplitSchema,
+  CultureStateChangeSchema,
+  CultureQuarantineSchema,
+} from '@barmkeep/schemas';
 import type { Db } from '../db/client';
 import type { CultureEventRow, CultureInsert, CultureRow } from '../db/schema';
 import {
@@ -244,10 +249,31 @@ function columnComparator(sort: CultureListQuery['sort'], dir: 'asc' | 'desc') {
 
 export async function getCultureDetail(ctx: ServiceContext, actor: Actor, id: string) {
   const row = await loadCultureForView(ctx.db, actor, id);
-  return presentDetail(ctx, row);
+  return presentDetail(ctx, actor, row);
 }
 
-async function presentDetail(ctx: ServiceContext, row: CultureRow) {
+/**
+ * The parent as this actor may see it: openable when it is theirs; its name and keeper when it is
+ * a fellow club member's (the same fields the lineage shows them, decision 0040); nothing else.
+ */
+async function parentAsSeenBy(ctx: ServiceContext, actor: Actor, row: CultureRow): Promise<CultureParentDto | null> {
+  if (!row.parentId) return null;
+  const parent = await findCultureById(ctx.db, row.parentId);
+  if (!parent) return null;
+  if (canView(actor, parent)) return { id: parent.id, strainName: parent.strainName, openable: true, keeperName: null };
+  if (canSeeInLineage(actor, parent, await loadLineageTies(ctx.db, actor))) {
+    const names = await findUserNames(ctx.db, [parent.ownerUserId]);
+    return {
+      id: parent.id,
+      strainName: parent.strainName,
+      openable: false,
+      keeperName: names.get(parent.ownerUserId) ?? null,
+    };
+  }
+  return { id: parent.id, strainName: null, openable: false, keeperName: null };
+}
+
+async function presentDetail(ctx: ServiceContext, actor: Actor, row: CultureRow) {
   const now = ctx.now();
   const [latestCount] = await effectiveCounts(ctx.db, row.id);
   const names = await findUserNames(ctx.db, row.stateChangedBy ? [row.stateChangedBy] : []);
@@ -257,6 +283,7 @@ async function presentDetail(ctx: ServiceContext, row: CultureRow) {
     suspectFrom = from ? { id: from.id, strainName: from.strainName } : null;
   }
   return presentCultureDetail(row, now, {
+    parent: await parentAsSeenBy(ctx, actor, row),
     health: healthOf(row, now, latestCount),
     stateChangedByName: row.stateChangedBy ? (names.get(row.stateChangedBy) ?? null) : null,
     suspectFrom,

@@ -113,6 +113,40 @@ describe('lineage across owners', () => {
     expect(privateText(res.text)).toEqual([]);
   });
 
+  it('a received culture’s page names its parent as the lineage does: strain and keeper, not a link to open', async () => {
+    const mine = await rhea.agent.get(`/api/cultures/${rheaCulture}`).expect(200);
+    expect(mine.body.culture.parent).toEqual({
+      id: root.id,
+      strainName: root.strainName,
+      openable: false,
+      keeperName: 'Kell Keeper',
+    });
+    expect(privateText(mine.text)).toEqual([]);
+    // her own re-culture's parent is hers: named and openable
+    const grand = await rhea.agent.get(`/api/cultures/${rheaGrandchild}`).expect(200);
+    expect(grand.body.culture.parent).toMatchObject({ id: rheaCulture, openable: true, keeperName: null });
+    // Pip shares no club with Rhea's club-A keeper, but is in club B with Rhea: her node is named
+    const pips = await pip.agent.get(`/api/cultures/${pipCulture}`).expect(200);
+    expect(pips.body.culture.parent).toMatchObject({
+      id: rheaGrandchild,
+      openable: false,
+      keeperName: 'Rhea Recipient',
+    });
+  });
+
+  it('a parent kept by someone the viewer shares no club with is not named', async () => {
+    const temp = await signedUpPerson(t, 'Tove Transient');
+    const club = await buildClub(t, [
+      { person: kell, role: 'owner' },
+      { person: temp, role: 'member' },
+    ]);
+    const other = (await kell.agent.post('/api/cultures').send(buildDregs()).expect(201)).body.culture.id as string;
+    const theirs = await handOver(club, kell, temp, other);
+    await temp.agent.post(`/api/clubs/${club}/leave`).expect(204);
+    const page = await temp.agent.get(`/api/cultures/${theirs}`).expect(200);
+    expect(page.body.culture.parent).toEqual({ id: other, strainName: null, openable: false, keeperName: null });
+  });
+
   it('the middle level follows membership: after leaving the club, the keeper’s node is hidden again', async () => {
     const temp = await signedUpPerson(t, 'Tess Temporary');
     const club = await buildClub(t, [

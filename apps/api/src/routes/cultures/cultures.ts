@@ -98,7 +98,7 @@ export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
 
   router.post('/', validate({ body: makeCultureCreateSchema(ctx.now) }), async (req, res) => {
     const row = await createCulture(ctx, currentUser(req), req.body);
-    res.status(201).json({ culture: await presentDetail(ctx, row) });
+    res.status(201).json({ culture: await presentDetail(ctx, currentUser(req), row) });
   });
 
   router.get('/:id', validate({ params: CultureIdParamsSchema }), async (req, res) => {
@@ -107,7 +107,7 @@ export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
 
   router.patch('/:id', validate({ params: CultureIdParamsSchema, body: CultureUpdateSchema }), async (req, res) => {
     const row = await updateCulture(ctx, currentUser(req), id(req), req.body);
-    res.json({ culture: await presentDetail(ctx, row) });
+    res.json({ culture: await presentDetail(ctx, currentUser(req), row) });
   });
 
   router.get(
@@ -138,7 +138,7 @@ export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
     validate({ params: CultureIdParamsSchema, body: CultureStateChangeSchema }),
     async (req, res) => {
       const row = await changeCultureState(ctx, currentUser(req), id(req), req.body);
-      res.json({ culture: await presentDetail(ctx, row) });
+      res.json({ culture: await presentDetail(ctx, currentUser(req), row) });
     },
   );
 

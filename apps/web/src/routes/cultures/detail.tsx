@@ -806,11 +806,23 @@ export function Component() {
                   {c.locationLabel ? `${c.locationLabel}, ` : ''}
                   <span className="num">{c.storageTempC} °C</span>
                 </Fact>
-                {c.parentId ? (
-                  <Fact label="Parent">
-                    <Link className="text-accent underline" to={`/cultures/${c.parentId}`}>
-                      open
-                    </Link>
+                {c.parent ? (
+                  <Fact label="Grown from">
+                    {c.parent.openable ? (
+                      <Link className="text-accent underline" to={`/cultures/${c.parent.id}`}>
+                        {c.parent.strainName}
+                      </Link>
+                    ) : c.parent.strainName ? (
+                      <>
+                        {c.parent.strainName}, kept by {c.parent.keeperName ?? 'a fellow member'} (
+                        <Link className="text-accent underline" to={`/cultures/${c.id}/lineage`}>
+                          see the lineage
+                        </Link>
+                        )
+                      </>
+                    ) : (
+                      <span className="text-ink-muted">a culture not shared with you</span>
+                    )}
                   </Fact>
                 ) : null}
                 <Fact label="State since">
