@@ -63,10 +63,14 @@ export function formatCells(cells: number): string {
 
 export const pct = (v: number) => `${Math.round(v * 100)}%`;
 
+// One formatter for every call: building an Intl.DateTimeFormat costs far more than using one,
+// and a culture page formats dozens of dates while it renders.
+const mediumDate = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
+
 export function formatDate(iso: string): string {
   const d = new Date(iso);
   if (Number.isNaN(d.getTime())) return iso;
-  return new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' }).format(d);
+  return mediumDate.format(d);
 }
 
 export function attentionText(days: number | null): string {

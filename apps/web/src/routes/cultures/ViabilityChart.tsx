@@ -12,7 +12,9 @@ import {
 import type { HealthSeries } from '../../api/cultures/queries';
 
 const day = (iso: string) => new Date(iso).getTime();
-const fmt = (t: number) => new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short' }).format(new Date(t));
+// built once: the axis formats every tick on every render
+const dayMonth = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short' });
+const fmt = (t: number) => dayMonth.format(new Date(t));
 
 /** Projected viability over the coming weeks, with stain counts as points. Loaded only on the culture page. */
 export default function ViabilityChart({ data }: { data: HealthSeries }) {
