@@ -140,3 +140,54 @@ test('call a plan off (after a second, explicit step) and take it up again', asy
   await expect(page.getByRole('button', { name: 'Call this plan off' })).toBeVisible();
   expect((await (await page.request.get(`/api/plans/${planId}`)).json()).plan.status).toBe('planned');
 });
+
+test('pitch straight from a culture’s page, without a plan; nothing ticked is refused', async ({ page, baseURL }) => {
+  await signUpThroughForm(page);
+  const headers = { Origin: baseURL! };
+  const make = async (strainName: string) => {
+    const res = await page.request.post('/api/cultures', {
+      headers,
+      data: {
+        strainName,
+        form: 'slurry_washed',
+        origin: { origin: 'gift', fromName: 'A club friend' },
+        amount: { volumeMl: 200 },
+        storageTempC: 3,
+        madeAt: new Date(Date.now() - 4 * 86_400_000).toISOString(),
+      },
+    });
+    expect(res.status()).toBe(201);
+    return (await res.json()).culture.id as string;
+  };
+  const main = await make('Sedgefield lager slurry');
+  const other = await make('Sedgefield ale slurry');
+
+  await page.goto(`/cultures/${main}`);
+  await page.getByRole('link', { name: 'Pitch into a batch' }).click();
+  await expect(page.getByRole('heading', { name: 'Pitch into a batch', level: 1 })).toBeVisible();
+  const picker = page.getByRole('group', { name: 'Which cultures went in' });
+  await expect(picker.getByLabel(/Sedgefield lager slurry/)).toBeChecked();
+  await expect(picker.getByLabel(/Sedgefield ale slurry/)).not.toBeChecked();
+
+  await page.getByLabel('Batch name').fill('Sedgefield dark lager');
+  await page.getByLabel('Volume (litres)').fill('19');
+  await page.getByLabel('Original gravity (SG)').fill('1.052');
+  await picker.getByLabel(/Sedgefield lager slurry/).uncheck();
+  await page.getByRole('button', { name: 'Record batch and pitch' }).click();
+  await expect(page.getByText('Choose the culture you pitched')).toBeVisible();
+  expect((await (await page.request.get('/api/batches')).json()).batches).toHaveLength(0);
+
+  await picker.getByLabel(/Sedgefield lager slurry/).check();
+  await picker.getByLabel(/Sedgefield ale slurry/).check();
+  await page.getByRole('button', { name: 'Record batch and pitch' }).click();
+  await expect(page.getByRole('heading', { name: 'Sedgefield dark lager', level: 1 })).toBeVisible();
+  await shot(page, 'brew-03-pitched-without-plan');
+  for (const id of [main, other]) {
+    const events = (await (await page.request.get(`/api/cultures/${id}/events`)).json()).events as { kind: string }[];
+    expect(events.some((e) => e.kind === 'pitched')).toBe(true);
+  }
+  // a used-up culture no longer offers to be pitched
+  await page.goto(`/cultures/${main}`);
+  await expect(page.getByRole('heading', { name: 'Sedgefield lager slurry', level: 1 })).toBeVisible();
+  await expect(page.getByRole('link', { name: 'Pitch into a batch' })).toHaveCount(0);
+});

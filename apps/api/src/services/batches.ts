@@ -119,6 +119,12 @@ export async function createBatch(ctx: ServiceContext, actor: Actor, input: Batc
           `${c.strainName} is ${c.state.replace('_', ' ')}; it cannot be pitched again`,
         );
       }
+      if (c.state === 'quarantined' || c.suspect) {
+        throw conflict(
+          'culture_suspect',
+          `${c.strainName} is ${c.state === 'quarantined' ? 'in quarantine' : 'suspected of contamination'}; check it and clear it on its page before pitching it`,
+        );
+      }
       if (input.brewedAt.getTime() < c.madeAt.getTime() - MS_PER_DAY) {
         throw validationFailed({ 'body.brewedAt': [`This is before ${c.strainName} was made`] });
       }

@@ -6,6 +6,7 @@ import type { PlanDto, UserDto } from '@barmkeep/schemas';
 import { sgFromPlato, usGallonsFromLitres } from '@barmkeep/core';
 import { authQueries } from '../api/auth/queries';
 import { planningQueries } from '../api/planning/queries';
+import { cultureQueries } from '../api/cultures/queries';
 import { useCreateBatchMutation } from '../api/planning/mutations';
 import { isApiError } from '../api/client';
 import { Button, Card, FormAlert, Loading, Notice, PageHeader, TextField } from '../components';
@@ -30,8 +31,60 @@ interface Values {
   usedUp: boolean;
 }
 
-function BatchForm({ user, plan }: { user: UserDto; plan: PlanDto | null }) {
+/** Without a plan, the person ticks the cultures that went in (those still kept and not suspect). */
+function CulturePicker({
+  chosen,
+  onChange,
+  error,
+}: {
+  chosen: string[];
+  onChange: (ids: string[]) => void;
+  error?: string;
+}) {
+  const list = useQuery(cultureQueries.list({ pageSize: 100, sort: 'name', dir: 'asc' }));
+  if (list.isPending) return <Loading label="Loading your cultures" />;
+  if (list.isError)
+    return (
+      <Notice tone="danger" title="Could not load your cultures">
+        {list.error.message}
+      </Notice>
+    );
+  const usable = list.data.cultures.filter((c) => (c.state === 'active' || c.state === 'stored') && !c.suspect);
+  if (usable.length === 0) {
+    return (
+      <Notice tone="warning" title="No culture to pitch">
+        Only cultures you still keep (active or stored, not suspect) can go into a batch.
+      </Notice>
+    );
+  }
+  return (
+    <fieldset className="space-y-2" aria-describedby={error ? 'pitch-error' : undefined}>
+      <legend className="font-medium">Which cultures went in</legend>
+      {usable.map((c) => (
+        <label key={c.id} className="flex min-h-11 items-center gap-3">
+          <input
+            type="checkbox"
+            className="size-5 accent-accent"
+            checked={chosen.includes(c.id)}
+            onChange={(e) => onChange(e.target.checked ? [...chosen, c.id] : chosen.filter((id) => id !== c.id))}
+          />
+          <span>
+            {c.strainName} <span className="text-sm text-ink-muted">· gen {c.generation}</span>
+          </span>
+        </label>
+      ))}
+      {error ? (
+        <p id="pitch-error" className="text-sm text-danger">
+          {error}
+        </p>
+      ) : null}
+    </fieldset>
+  );
+}
+
+function BatchForm({ user, plan, cultureId }: { user: UserDto; plan: PlanDto | null; cultureId: string | null }) {
   const navigate = useNavigate();
+  const [chosen, setChosen] = useState<string[]>(cultureId ? [cultureId] : []);
   const create = useCreateBatchMutation();
   const [error, setError] = useState<string | undefined>();
   const [fields, setFields] = useState<Record<string, string>>({});
@@ -54,7 +107,8 @@ function BatchForm({ user, plan }: { user: UserDto; plan: PlanDto | null }) {
       usedUp: true,
     },
   });
-  const cultures = plan?.cultures.filter((c) => c.available) ?? [];
+  const planCultures = plan?.cultures.filter((c) => c.available) ?? [];
+  const pitchedIds = plan ? planCultures.map((c) => c.id) : chosen;
   const n = (s: string) => (s.trim() === '' ? undefined : Number(s.replace(',', '.')));
   const onSubmit = handleSubmit(async (v) => {
     setError(undefined);
@@ -75,8 +129,8 @@ function BatchForm({ user, plan }: { user: UserDto; plan: PlanDto | null }) {
         ...(n(v.lagHours) !== undefined ? { lagHours: n(v.lagHours) } : {}),
         notes: v.notes,
         ...(plan ? { planId: plan.id } : {}),
-        pitches: cultures.map((c, i) => ({
-          cultureId: c.id,
+        pitches: pitchedIds.map((id, i) => ({
+          cultureId: id,
           ...(cells !== undefined && i === 0 ? { cellsPitched: cells * 1e9 } : {}),
         })),
         usedUp: v.usedUp,
@@ -101,10 +155,10 @@ function BatchForm({ user, plan }: { user: UserDto; plan: PlanDto | null }) {
       } else setError('Something unexpected went wrong. Try again.');
     }
   });
-  if (cultures.length === 0) {
+  if (plan && planCultures.length === 0) {
     return (
-      <Notice tone="warning" title="Start from a plan">
-        Open the starter plan you are pitching and choose “Pitch into a batch”.
+      <Notice tone="warning" title="This plan has no culture left to pitch">
+        Its cultures are used up or no longer yours. Choose “Pitch into a batch” without a plan, from a culture’s page.
       </Notice>
     );
   }
@@ -113,10 +167,17 @@ function BatchForm({ user, plan }: { user: UserDto; plan: PlanDto | null }) {
     <form onSubmit={onSubmit} noValidate className="max-w-xl space-y-5" aria-label="Record the batch">
       <FormAlert message={error} />
       <Card className="space-y-4">
-        <p>
-          Pitching <strong>{cultures.map((c) => c.strainName).join(' + ')}</strong>. Each culture gets a “pitched” entry
-          in its log.
-        </p>
+        {plan ? (
+          <p>
+            Pitching <strong>{planCultures.map((c) => c.strainName).join(' + ')}</strong>. Each culture gets a “pitched”
+            entry in its log.
+          </p>
+        ) : (
+          <>
+            <CulturePicker chosen={chosen} onChange={setChosen} error={fields.pitches} />
+            <p className="text-sm text-ink-muted">Each culture gets a “pitched” entry in its log.</p>
+          </>
+        )}
         <TextField label="Batch name" error={fields.name} {...register('name')} />
         <TextField label="Brewed on" type="datetime-local" error={fields.brewedLocal} {...register('brewedLocal')} />
         <TextField
@@ -165,13 +226,14 @@ function BatchForm({ user, plan }: { user: UserDto; plan: PlanDto | null }) {
 export function Component() {
   const [params] = useSearchParams();
   const planId = params.get('planId');
+  const cultureId = params.get('cultureId');
   const me = useQuery(authQueries.me());
   const plan = useQuery({ ...planningQueries.plan(planId ?? ''), enabled: !!planId });
   if (!me.data || (planId && plan.isPending)) return <Loading />;
   return (
     <>
       <PageHeader title="Pitch into a batch" description="Record the brew and the yeast that went in." />
-      <BatchForm user={me.data} plan={plan.data ?? null} />
+      <BatchForm user={me.data} plan={plan.data ?? null} cultureId={cultureId} />
     </>
   );
 }

@@ -60,3 +60,22 @@ describe('batches under simultaneous requests', () => {
     expect((await agent.get(`/api/cultures/${kept.id}`).expect(200)).body.culture.state).toBe(kept.state);
   });
 });
+
+describe('what may be pitched', () => {
+  it('a quarantined or suspect culture is refused until it is cleared', async () => {
+    const agent = t.agent();
+    await signUp(agent);
+    const c = await culture(agent, 'Floodgate farmhouse');
+    await agent.post(`/api/cultures/${c.id}/state`).send({ state: 'quarantined' }).expect(200);
+    const refused = await agent.post('/api/batches').send(batch([c.id], 'Too soon'));
+    expect(refused.status).toBe(409);
+    expect(refused.body.error).toMatchObject({ code: 'culture_suspect' });
+    expect(refused.body.error.message).toMatch(/in quarantine/);
+    expect((await agent.get('/api/batches').expect(200)).body.batches).toHaveLength(0);
+    await agent.post(`/api/cultures/${c.id}/state`).send({ state: 'stored', clearSuspect: true }).expect(200);
+    await agent
+      .post('/api/batches')
+      .send(batch([c.id], 'After the check'))
+      .expect(201);
+  });
+});

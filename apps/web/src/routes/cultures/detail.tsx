@@ -648,6 +648,11 @@ function Actions({ c }: { c: CultureDetailDto }) {
           <ButtonLink to={`/cultures/new?parent=${c.id}&origin=batch_slurry`} variant="secondary">
             Harvest from a batch
           </ButtonLink>
+          {(c.state === 'active' || c.state === 'stored') && !c.suspect ? (
+            <ButtonLink to={`/batches/new?cultureId=${c.id}`} variant="secondary">
+              Pitch into a batch
+            </ButtonLink>
+          ) : null}
           <ButtonLink
             to={`/cultures/${c.id}/lineage`}
             variant="secondary"
