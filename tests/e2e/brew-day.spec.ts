@@ -190,4 +190,7 @@ test('pitch straight from a culture’s page, without a plan; nothing ticked is 
   await page.goto(`/cultures/${main}`);
   await expect(page.getByRole('heading', { name: 'Sedgefield lager slurry', level: 1 })).toBeVisible();
   await expect(page.getByRole('link', { name: 'Pitch into a batch' })).toHaveCount(0);
+  // and its batches by generation are one click away
+  await page.getByRole('link', { name: 'Batches by generation' }).click();
+  await expect(page.getByRole('cell', { name: 'Sedgefield dark lager' })).toBeVisible();
 });

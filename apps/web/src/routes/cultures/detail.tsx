@@ -660,6 +660,9 @@ function Actions({ c }: { c: CultureDetailDto }) {
           >
             Lineage
           </ButtonLink>
+          <ButtonLink to={`/batches/generations?cultureId=${c.id}`} variant="quiet">
+            Batches by generation
+          </ButtonLink>
         </div>
       ) : (
         <ButtonLink
