@@ -254,6 +254,18 @@ describe('stored crossings', () => {
     expect((await crossingRow(id)).stale).toBe(false);
   });
 
+  it('a culture that is no longer kept has no crossing and needs no recompute', async () => {
+    const made = new Date('2025-02-03T09:00:00Z');
+    t.clock.now = new Date(made.getTime() + HOUR);
+    const { agent } = await keeper();
+    const id = await createCulture(agent, pack(made));
+    await tick(new Date(made.getTime() + DAY));
+    expect((await crossingRow(id)).crossing).not.toBeNull();
+    t.clock.now = new Date(made.getTime() + 2 * DAY);
+    await agent.post(`/api/cultures/${id}/state`).send({ state: 'discarded' }).expect(200);
+    expect(await crossingRow(id)).toEqual({ crossing: null, stale: false, check_at: null });
+  });
+
   it('a new threshold recomputes every crossing of that person, and only theirs', async () => {
     const made = new Date('2025-01-06T12:00:00Z');
     t.clock.now = new Date(made.getTime() + HOUR);
