@@ -4,16 +4,17 @@
  * apps/web/dist (run `pnpm --filter @barmkeep/web build` first; `bash infra/bench.sh` does). It
  * serves the built app + API itself (`NODE_ENV=production`, the same way tests/e2e/serve.sh does)
  * on a free loopback port, on a fresh database of its own with the demo seed, and drops that
- * database afterwards. PostgreSQL: the project's (127.0.0.1:54329), started with infra/pg-start.sh
- * when it is not running (and stopped again at the end), or BENCH_ADMIN_DATABASE_URL (infra/bench.sh
- * exports it).
+ * database afterwards. PostgreSQL: the project's (127.0.0.1:54329; started with infra/pg-start.sh
+ * when it is not running, and left running), or BENCH_ADMIN_DATABASE_URL (infra/bench.sh exports it).
  *
  *   pnpm --filter @barmkeep/e2e lighthouse             # LH_RUNS=5 runs per page, the median kept
  *   cd tests && LH_PAGES=library LH_RUNS=1 pnpm exec tsx perf/lighthouse.ts
+ *   LH_BASELINE_ROOT=/path/to/other/checkout …          # + that checkout, side by side, runs interleaved
  *
- * Writes the scores and metrics into docs/performance.md between the `bench:lighthouse` markers,
- * and every report (HTML + JSON) into .data/bench/lighthouse/. Exits 1 when the library page scores
- * under 95 for performance or accessibility.
+ * Writes the scores and metrics into docs/performance.md between the `bench:lighthouse` markers
+ * (`bench:lighthouse-compare` with a baseline), and every report (HTML + JSON) into
+ * .data/bench/lighthouse/. Exits 1 when the library page scores under 95 for performance or
+ * accessibility.
  */
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
 import { createServer, type AddressInfo } from 'node:net';
@@ -26,8 +27,9 @@ import lighthouse, { desktopConfig } from 'lighthouse';
 import type { Result as LhResult } from 'lighthouse';
 
 const REPO_ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
-const API_DIR = path.join(REPO_ROOT, 'apps/api');
-const WEB_DIST = path.join(REPO_ROOT, 'apps/web/dist');
+// LH_BASELINE_ROOT: another checkout (e.g. a `git worktree` of an earlier commit, installed and
+// built) measured side by side with this one, runs interleaved, so both see the same machine.
+const BASELINE_ROOT = process.env.LH_BASELINE_ROOT ? path.resolve(process.env.LH_BASELINE_ROOT) : undefined;
 const OUT_DIR = path.join(REPO_ROOT, '.data/bench/lighthouse');
 const DOC = path.join(REPO_ROOT, 'docs/performance.md');
 const CHROME_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -72,9 +74,9 @@ function postgresAnswers() {
 }
 
 /** The built app + API, as in production, on its own database seeded with the demo club. */
-async function startApp(databaseUrl: string, port: number) {
+async function startApp(root: string, databaseUrl: string, port: number) {
   const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], {
-    cwd: API_DIR,
+    cwd: path.join(root, 'apps/api'),
     env: {
       ...process.env,
       NODE_ENV: 'production',
@@ -86,7 +88,7 @@ async function startApp(databaseUrl: string, port: number) {
       FAKE_SMTP_PORT: '0',
       SEED_DEMO: '1',
       LOG_LEVEL: 'warn',
-      WEB_DIST,
+      WEB_DIST: path.join(root, 'apps/web/dist'),
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
@@ -191,31 +193,14 @@ async function runOnce(url: string, cookie: string | undefined) {
   }
 }
 
-async function audit(base: string, name: string, route: string, cookie?: string) {
-  const lhrs: LhResult[] = [];
-  for (let i = 0; i < RUNS; i++) {
-    let result: Awaited<ReturnType<typeof runOnce>>;
-    // A trace that failed to record (NO_NAVSTART, NO_FCP…) says "run again": up to two more tries.
-    for (let attempt = 1; ; attempt++) {
-      result = await runOnce(`${base}${route}`, cookie);
-      const error = result?.lhr.runtimeError;
-      if (!error) break;
-      if (attempt === 3) throw new Error(`${route}: ${error.code} ${error.message}`);
-      console.log(`  ${name} run ${i + 1}: ${error.code}, trying again`);
-    }
-    if (!result) throw new Error(`lighthouse returned nothing for ${route}`);
-    const lhr = result.lhr;
-    // A guarded page that bounced to /sign-in would be measuring the wrong page.
-    if (cookie && new URL(lhr.finalDisplayedUrl).pathname !== route)
-      throw new Error(`${route} ended on ${lhr.finalDisplayedUrl}: the session cookie was not accepted`);
-    const [html, json] = result.report as string[];
-    writeFileSync(path.join(OUT_DIR, `${name}-${i + 1}.html`), html!);
-    writeFileSync(path.join(OUT_DIR, `${name}-${i + 1}.json`), json!);
-    lhrs.push(lhr);
-    console.log(
-      `  ${name} run ${i + 1}: ${CATEGORIES.map((c) => `${c} ${Math.round(lhr.categories[c]!.score! * 100)}`).join(', ')}`,
-    );
-  }
+interface Target {
+  label: string;
+  base: string;
+  cookie: string;
+  cultureId: string;
+}
+
+function summarize(name: string, route: string, lhrs: LhResult[]): PageResult {
   // The median run by performance score (then by LCP), as Lighthouse's own docs advise for variance.
   const sorted = [...lhrs].sort(
     (a, b) =>
@@ -223,7 +208,7 @@ async function audit(base: string, name: string, route: string, cookie?: string)
       a.audits[METRICS.lcp]!.numericValue! - b.audits[METRICS.lcp]!.numericValue!,
   );
   const median = sorted[Math.floor((sorted.length - 1) / 2)]!;
-  const result: PageResult = {
+  return {
     page: name,
     path: route,
     runs: lhrs.length,
@@ -235,10 +220,53 @@ async function audit(base: string, name: string, route: string, cookie?: string)
     ) as PageResult['metrics'],
     failing: CATEGORIES.flatMap((c) => failingAudits(median, c)),
   };
-  return { result, lighthouseVersion: median.lighthouseVersion, userAgent: median.environment.hostUserAgent };
 }
 
-function writeDocs(results: PageResult[], meta: { at: string; lighthouse: string; chrome: string; load: string }) {
+/** RUNS runs of one page on every target, interleaved (target A, target B, A, B…). */
+async function audit(targets: Target[], name: string, routeOf: (t: Target) => string, signedIn: boolean) {
+  const lhrs = targets.map(() => [] as LhResult[]);
+  for (let i = 0; i < RUNS; i++) {
+    for (const [k, t] of targets.entries()) {
+      const route = routeOf(t);
+      const cookie = signedIn ? t.cookie : undefined;
+      const tag = targets.length > 1 ? `${name} (${t.label})` : name;
+      let result: Awaited<ReturnType<typeof runOnce>>;
+      // A trace that failed to record (NO_NAVSTART, NO_FCP…) says "run again": up to two more tries.
+      for (let attempt = 1; ; attempt++) {
+        result = await runOnce(`${t.base}${route}`, cookie);
+        const error = result?.lhr.runtimeError;
+        if (!error) break;
+        if (attempt === 3) throw new Error(`${route}: ${error.code} ${error.message}`);
+        console.log(`  ${tag} run ${i + 1}: ${error.code}, trying again`);
+      }
+      if (!result) throw new Error(`lighthouse returned nothing for ${route}`);
+      const lhr = result.lhr;
+      // A guarded page that bounced to /sign-in would be measuring the wrong page.
+      if (cookie && new URL(lhr.finalDisplayedUrl).pathname !== route)
+        throw new Error(`${route} ended on ${lhr.finalDisplayedUrl}: the session cookie was not accepted`);
+      const [html, json] = result.report as string[];
+      const file = `${name}${targets.length > 1 ? `-${t.label}` : ''}-${i + 1}`;
+      writeFileSync(path.join(OUT_DIR, `${file}.html`), html!);
+      writeFileSync(path.join(OUT_DIR, `${file}.json`), json!);
+      lhrs[k]!.push(lhr);
+      console.log(
+        `  ${tag} run ${i + 1}: ${CATEGORIES.map((c) => `${c} ${Math.round(lhr.categories[c]!.score! * 100)}`).join(', ')}`,
+      );
+    }
+  }
+  const first = lhrs[0]![0]!;
+  return {
+    results: targets.map((t, k) => summarize(targets.length > 1 ? `${name} (${t.label})` : name, routeOf(t), lhrs[k]!)),
+    lighthouseVersion: first.lighthouseVersion,
+    userAgent: first.environment.hostUserAgent,
+  };
+}
+
+function writeDocs(
+  results: PageResult[],
+  meta: { at: string; lighthouse: string; chrome: string; load: string },
+  marker: string,
+) {
   const ms = (v: number) => `${Math.round(v)} ms`;
   const lines = [
     `Last run ${meta.at.slice(0, 16).replace('T', ' ')} UTC: Lighthouse ${meta.lighthouse}, desktop preset (simulated throttling), ${meta.chrome}, headless, each run in a fresh Chromium; median of ${results[0]?.runs ?? 0} runs per page by performance score; load average ${meta.load} (2 cores shared with other work: TBT moves with it). Signed in as a demo keeper (odile@millrace.example) for the signed-in pages.`,
@@ -257,8 +285,8 @@ function writeDocs(results: PageResult[], meta: { at: string; lighthouse: string
       return `- ${r.page}: audits costing points: ${list(weighted)}. Advice only (weight 0): ${advice.map((f) => f.id).join(', ') || 'none'}.`;
     }),
   ];
-  const start = '<!-- bench:lighthouse:start -->';
-  const end = '<!-- bench:lighthouse:end -->';
+  const start = `<!-- bench:${marker}:start -->`;
+  const end = `<!-- bench:${marker}:end -->`;
   const text = readFileSync(DOC, 'utf8');
   const i = text.indexOf(start);
   const j = text.indexOf(end);
@@ -270,71 +298,81 @@ function writeDocs(results: PageResult[], meta: { at: string; lighthouse: string
   writeFileSync(DOC, next);
   // the repository's format check covers docs/ too
   execFileSync('pnpm', ['--silent', 'exec', 'prettier', '--write', DOC], { cwd: REPO_ROOT, stdio: 'ignore' });
-  console.log(`wrote docs/performance.md (lighthouse section)\n${lines.join('\n')}`);
+  console.log(`wrote docs/performance.md (${marker} section)\n${lines.join('\n')}`);
+}
+
+/** One app (this checkout or the baseline) on a fresh database, signed in and warmed up. */
+async function startTarget(root: string, label: string, stops: (() => Promise<void> | void)[]): Promise<Target> {
+  if (!existsSync(path.join(root, 'apps/web/dist/index.html')))
+    throw new Error(
+      `no apps/web/dist/index.html in ${root}: build the web app first (pnpm --filter @barmkeep/web build)`,
+    );
+  const dbName = `barmkeep_lighthouse_${process.pid}_${label.replace(/\W/g, '')}`;
+  psql(`create database ${dbName}`);
+  stops.push(() => psql(`drop database if exists ${dbName} with (force)`));
+  const port = await freePort();
+  const base = `http://127.0.0.1:${port}`;
+  const dbUrl = new URL(ADMIN_URL);
+  dbUrl.pathname = `/${dbName}`;
+  const app = await startApp(root, dbUrl.toString(), port);
+  stops.push(app.stop);
+  const cookie = await signIn(base);
+  const list = (await (await fetch(`${base}/api/cultures?page=1&pageSize=25`, { headers: { cookie } })).json()) as {
+    cultures: { id: string }[];
+  };
+  const cultureId = list.cultures[0]?.id;
+  if (!cultureId) throw new Error('the demo seed has no culture for this keeper');
+  // A warm server, as in use: the first requests after start pay for module loading and cold
+  // caches (JIT, PostgreSQL buffers, gzip), which is not what a visitor of a running app meets.
+  const warmUp = ['/api/auth/me', '/api/cultures?page=1&pageSize=25', `/api/cultures/${cultureId}`, '/cultures'];
+  for (let i = 0; i < 3; i++)
+    for (const url of warmUp) await (await fetch(`${base}${url}`, { headers: { cookie } })).arrayBuffer();
+  return { label, base, cookie, cultureId };
 }
 
 async function main() {
-  if (!existsSync(path.join(WEB_DIST, 'index.html')))
-    throw new Error('no apps/web/dist/index.html: build the web app first (pnpm --filter @barmkeep/web build)');
   mkdirSync(OUT_DIR, { recursive: true });
   const wanted = new Set((process.env.LH_PAGES ?? 'library,sign-in,culture').split(','));
 
   const stops: (() => Promise<void> | void)[] = [];
   if (!process.env.BENCH_ADMIN_DATABASE_URL && !postgresAnswers()) {
+    // left running afterwards, as infra/pg-start.sh does: other work may have started using it
     execFileSync('bash', [path.join(REPO_ROOT, 'infra/pg-start.sh')], { stdio: 'inherit' });
-    stops.push(() => void execFileSync('bash', [path.join(REPO_ROOT, 'infra/pg-stop.sh')], { stdio: 'inherit' }));
   }
-  const dbName = `barmkeep_lighthouse_${process.pid}`;
-  psql(`create database ${dbName}`);
-  stops.push(() => psql(`drop database if exists ${dbName} with (force)`));
   const stopAll = async () => {
     while (stops.length) await stops.pop()!();
   };
   process.once('SIGINT', () => void stopAll().then(() => process.exit(130)));
   try {
-    const port = await freePort();
-    const base = `http://127.0.0.1:${port}`;
-    const dbUrl = new URL(ADMIN_URL);
-    dbUrl.pathname = `/${dbName}`;
-    const app = await startApp(dbUrl.toString(), port);
-    stops.push(app.stop);
-    const cookie = await signIn(base);
-    const list = (await (await fetch(`${base}/api/cultures?page=1&pageSize=25`, { headers: { cookie } })).json()) as {
-      cultures: { id: string }[];
-    };
-    const cultureId = list.cultures[0]?.id;
-    if (!cultureId) throw new Error('the demo seed has no culture for this keeper');
+    const targets: Target[] = [];
+    if (BASELINE_ROOT) targets.push(await startTarget(BASELINE_ROOT, 'before', stops));
+    targets.push(await startTarget(REPO_ROOT, BASELINE_ROOT ? 'after' : 'current', stops));
 
-    // A warm server, as in use: the first requests after start pay for module loading and cold
-    // caches (JIT, PostgreSQL buffers, gzip), which is not what a visitor of a running app meets.
-    const warmUp = ['/api/auth/me', '/api/cultures?page=1&pageSize=25', `/api/cultures/${cultureId}`, '/cultures'];
-    for (let i = 0; i < 3; i++)
-      for (const url of warmUp) await (await fetch(`${base}${url}`, { headers: { cookie } })).arrayBuffer();
-
-    const pages: [string, string, string | undefined][] = [
-      ['library', '/cultures', cookie],
-      ['sign-in', '/sign-in', undefined],
-      ['culture', `/cultures/${cultureId}`, cookie],
+    const pages: [string, (t: Target) => string, boolean][] = [
+      ['library', () => '/cultures', true],
+      ['sign-in', () => '/sign-in', false],
+      ['culture', (t) => `/cultures/${t.cultureId}`, true],
     ];
     const results: PageResult[] = [];
     const loadsSeen: number[] = [loadavg()[0]!];
     let meta = { lighthouse: '', chrome: '' };
-    for (const [name, route, withCookie] of pages) {
+    for (const [name, routeOf, signedIn] of pages) {
       if (!wanted.has(name)) continue;
-      const r = await audit(base, name, route, withCookie);
-      results.push(r.result);
+      const r = await audit(targets, name, routeOf, signedIn);
+      results.push(...r.results);
       loadsSeen.push(loadavg()[0]!);
       meta = { lighthouse: r.lighthouseVersion, chrome: r.userAgent.match(/Chrome\/[\d.]+/)?.[0] ?? 'Chromium' };
-      for (const f of r.result.failing)
-        console.log(`    ${f.weighted ? 'costs points' : 'advice'} · ${f.category}: ${f.id} (${f.text})`);
+      for (const pr of r.results)
+        for (const f of pr.failing)
+          console.log(`    ${pr.page}: ${f.weighted ? 'costs points' : 'advice'} · ${f.category}: ${f.id} (${f.text})`);
     }
     const loads = [Math.min(...loadsSeen), Math.max(...loadsSeen)];
-    writeDocs(results, {
-      at: new Date().toISOString(),
-      ...meta,
-      load: `${loads[0]!.toFixed(1)}–${loads[1]!.toFixed(1)}`,
-    });
-    const library = results.find((r) => r.page === 'library');
+    writeDocs(
+      results,
+      { at: new Date().toISOString(), ...meta, load: `${loads[0]!.toFixed(1)}–${loads[1]!.toFixed(1)}` },
+      BASELINE_ROOT ? 'lighthouse-compare' : 'lighthouse',
+    );
+    const library = results.find((r) => r.page === (BASELINE_ROOT ? 'library (after)' : 'library'));
     if (
       library &&
       (library.scores.performance < GOAL.performance || library.scores.accessibility < GOAL.accessibility)
