@@ -212,6 +212,12 @@ async function main() {
         path: '/api/cultures?sort=attention&page=1&pageSize=25',
         connections: CONNECTIONS,
       },
+      // projected viability is core's model, not a column: every matching culture is projected per request
+      {
+        name: 'library list, page 1 of 25 by projected viability',
+        path: '/api/cultures?sort=viability&dir=asc&page=1&pageSize=25',
+        connections: 10,
+      },
       // each answer is ~1 MB of JSON: fewer callers, so the loop measures work rather than a queue
       {
         name: 'lineage of 5,000 nodes (from a depth-30 leaf)',
