@@ -340,9 +340,19 @@ async function main() {
     execFileSync('bash', [path.join(REPO_ROOT, 'infra/pg-start.sh')], { stdio: 'inherit' });
   }
   const stopAll = async () => {
-    while (stops.length) await stops.pop()!();
+    while (stops.length) {
+      try {
+        await stops.pop()!();
+      } catch (err) {
+        console.warn(`cleanup: ${String(err)}`);
+      }
+    }
   };
-  process.once('SIGINT', () => void stopAll().then(() => process.exit(130)));
+  for (const [signal, code] of [
+    ['SIGINT', 130],
+    ['SIGTERM', 143],
+  ] as const)
+    process.once(signal, () => void stopAll().finally(() => process.exit(code)));
   try {
     const targets: Target[] = [];
     if (BASELINE_ROOT) targets.push(await startTarget(BASELINE_ROOT, 'before', stops));
