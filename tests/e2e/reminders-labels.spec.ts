@@ -50,7 +50,10 @@ test('a jar label prints with a QR code that opens the quick log; reminders and 
     },
   });
   expect(made.status()).toBe(201);
-  const id = (await made.json()).culture.id as string;
+  const { culture } = (await made.json()) as { culture: { id: string; labelCode: string } };
+  const id = culture.id;
+  // the person's first culture: the strain's first letter and number 1
+  expect(culture.labelCode).toBe('M-001');
 
   // the header shows the notices link with nothing unread
   await expect(page.getByRole('link', { name: 'Notices, none unread' })).toBeVisible();
@@ -63,7 +66,7 @@ test('a jar label prints with a QR code that opens the quick log; reminders and 
   const label = page.getByTestId('jar-label');
   await expect(label).toBeVisible();
   await expect(label).toContainText('Millrace Kellerbier slurry');
-  await expect(label).toContainText(id.slice(0, 6));
+  await expect(label).toContainText('M-001');
   await expect(label).toContainText('3 °C · Jar B3');
   await shot(page, 'reminders-02-label-sheet');
   const decoded = await decodeQr(page, await label.screenshot({ scale: 'device' }));

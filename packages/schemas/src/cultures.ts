@@ -499,6 +499,8 @@ export interface CultureParentDto {
 }
 
 export interface CultureDetailDto extends CultureSummaryDto {
+  /** the short code on the jar's label, unique among the owner's cultures, e.g. "C-017" */
+  labelCode: string;
   parent: CultureParentDto | null;
   originDetails: CultureOriginDetails;
   amount: CultureAmount;

@@ -65,6 +65,7 @@ export function presentCultureDetail(
 ): CultureDetailDto {
   return {
     ...presentCultureSummary(c, now, extra.health.viability),
+    labelCode: c.labelCode,
     parent: extra.parent,
     originDetails: c.originDetails,
     amount: c.amount,

@@ -7,8 +7,6 @@ import { loadCultureForView, type Actor } from './cultureAccess';
 import { users, type CultureRow } from '../db/schema';
 import { FORM_WORDS, localDate } from './reminders/format';
 
-/** The short code printed on a jar: the start of the culture's id, enough to find it by eye. */
-export const cultureCode = (id: string) => id.slice(0, 6);
 /** What a label's QR code opens: the quick-log screen of the culture (sign-in and access rules apply there). */
 export const labelUrl = (appUrl: string, id: string) => `${appUrl}/cultures/${encodeURIComponent(id)}/quick`;
 
@@ -27,7 +25,7 @@ async function labelOf(ctx: ServiceContext, c: CultureRow, timeZone: string): Pr
   const qrSvg = await QRCode.toString(url, { type: 'svg', margin: 0, errorCorrectionLevel: 'M' });
   return {
     cultureId: c.id,
-    code: cultureCode(c.id),
+    code: c.labelCode,
     strainName: c.strainName,
     generation: c.generation,
     form: FORM_WORDS[c.form],
@@ -53,13 +51,13 @@ const clip = (s: string, n: number) => (s.length > n ? `${s.slice(0, n - 1)}…`
 /** Label sizes at 300 dots per inch: 50 × 25 mm (a small roll label) and 63.5 × 38.1 mm (21 to an A4 sheet). */
 export const LABEL_PX = { small: { w: 591, h: 295 }, large: { w: 750, h: 450 } } as const;
 
-/** One label as a PNG: white ground, QR code on the left, the text beside it, drawn from an SVG by sharp. */
+/** One label as a PNG (and its code, for the file name): white ground, QR code on the left, the text beside it, drawn from an SVG by sharp. */
 export async function renderLabelPng(
   ctx: ServiceContext,
   actor: Actor,
   id: string,
   size: keyof typeof LABEL_PX,
-): Promise<Buffer> {
+): Promise<{ png: Buffer; code: string }> {
   const [label] = await getLabels(ctx, actor, [id]);
   const { w, h } = LABEL_PX[size];
   const pad = Math.round(h * 0.08);
@@ -79,5 +77,5 @@ export async function renderLabelPng(
 <text x="${tx}" y="${pad + big + line * 3}" font-size="${small}">${esc(label!.date)}</text>
 <text x="${tx}" y="${pad + big + line * 4}" font-size="${small}">${esc(clip(label!.storage, maxChars))}</text>
 </g></svg>`;
-  return sharp(Buffer.from(svg), { density: 72 }).png().toBuffer();
+  return { png: await sharp(Buffer.from(svg), { density: 72 }).png().toBuffer(), code: label!.code };
 }

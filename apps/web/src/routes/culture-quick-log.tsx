@@ -81,7 +81,10 @@ function QuickLog({ culture }: { culture: CultureDetailDto }) {
   return (
     <div className="space-y-4">
       <Card className="space-y-1">
-        <p className="num text-sm text-ink-muted">{culture.id.slice(0, 6)}</p>
+        <p className="num text-sm text-ink-muted">
+          <span className="sr-only">Label code </span>
+          {culture.labelCode}
+        </p>
         <h1 className="text-xl font-semibold">{culture.strainName}</h1>
         <p className="text-sm text-ink-muted">
           Generation <span className="num">{culture.generation}</span> · {culture.state.replace('_', ' ')} ·{' '}

@@ -7,6 +7,7 @@ import {
   real,
   jsonb,
   index,
+  uniqueIndex,
   boolean,
   check,
   type AnyPgColumn,
@@ -49,6 +50,12 @@ export const cultures = pgTable(
     parentId: text('parent_id').references((): AnyPgColumn => cultures.id, { onDelete: 'no action' }),
     generation: integer('generation').notNull().default(0),
     strainName: text('strain_name').notNull(),
+    /**
+     * The short code printed on the jar, unique per owner: the strain's first letter and the
+     * owner's running number, e.g. "C-017". Assigned by a trigger (drizzle/0012) when the row is
+     * inserted or changes owner, whatever the writer put there.
+     */
+    labelCode: text('label_code').notNull().default(''),
     species: text('species'),
     tags: text('tags')
       .array()
@@ -103,6 +110,7 @@ export const cultures = pgTable(
   (t) => [
     index('cultures_owner_attention_idx').on(t.ownerUserId, t.attentionDueAt, t.id),
     index('cultures_owner_club_idx').on(t.ownerClubId),
+    uniqueIndex('cultures_owner_label_code_uq').on(t.ownerUserId, t.labelCode),
     index('cultures_parent_idx').on(t.parentId),
     index('cultures_viability_check_idx')
       .on(t.viabilityCheckAt)

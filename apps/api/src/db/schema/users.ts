@@ -1,4 +1,4 @@
-import { pgTable, text, timestamp, pgEnum, index } from 'drizzle-orm/pg-core';
+import { pgTable, text, timestamp, pgEnum, index, integer } from 'drizzle-orm/pg-core';
 
 export const siteRole = pgEnum('site_role', ['user', 'admin']);
 export const unitSystem = pgEnum('unit_system', ['metric', 'us']);
@@ -15,6 +15,8 @@ export const users = pgTable('users', {
   temperatureUnit: temperatureUnit('temperature_unit').notNull().default('C'),
   gravityUnit: gravityUnit('gravity_unit').notNull().default('sg'),
   timeZone: text('time_zone').notNull().default('UTC'),
+  /** the number in the person's last culture label code (cultures.label_code); a trigger counts it up */
+  cultureLabelSeq: integer('culture_label_seq').notNull().default(0),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });

@@ -13,6 +13,31 @@ afterAll(async () => {
   await t.close();
 });
 
+describe('label codes', () => {
+  it('numbers each person’s cultures in turn, starting from the strain’s first letter, also when created at once', async () => {
+    const a = t.agent();
+    await signUp(a);
+    const make = async (agent: typeof a, strainName: string) =>
+      (
+        await agent
+          .post('/api/cultures')
+          .send(buildSlurry(undefined, { strainName, madeAt: '2026-03-18T10:00:00Z' }))
+          .expect(201)
+      ).body.culture.labelCode as string;
+    expect(await make(a, 'Copperbeech Ale')).toBe('C-001');
+    expect(await make(a, 'millpond lager')).toBe('M-002');
+    expect(await make(a, '42 Stout')).toBe('S-003');
+    expect(await make(a, '№ 9')).toBe('X-004');
+    const together = await Promise.all(['Oat', 'Oat', 'Oat', 'Oat', 'Oat'].map((n) => make(a, n)));
+    expect([...together].sort()).toEqual(['O-005', 'O-006', 'O-007', 'O-008', 'O-009']);
+
+    // unique per owner: someone else starts at 1
+    const b = t.agent();
+    await signUp(b);
+    expect(await make(b, 'Copperbeech Ale')).toBe('C-001');
+  });
+});
+
 describe('jar labels', () => {
   it('gives label data with a QR code for the owner only, and a PNG whose QR decodes to the culture', async () => {
     const agent = t.agent();
@@ -27,7 +52,7 @@ describe('jar labels', () => {
     const [label] = res.body.labels;
     expect(label).toMatchObject({
       cultureId: c.id,
-      code: c.id.slice(0, 6),
+      code: c.labelCode,
       strainName: c.strainName,
       generation: c.generation,
       date: '2026-03-18',
@@ -35,6 +60,7 @@ describe('jar labels', () => {
       url: `${ORIGIN}/cultures/${c.id}/quick`,
     });
     expect(label.qrSvg).toMatch(/^<svg /);
+    expect(c.labelCode).toMatch(/^[A-Z]-\d{3}$/);
 
     const png = await agent
       .get(`/api/labels/${c.id}/png?size=small`)
@@ -46,6 +72,7 @@ describe('jar labels', () => {
       });
     expect(png.status).toBe(200);
     expect(png.headers['content-type']).toBe('image/png');
+    expect(png.headers['content-disposition']).toBe(`attachment; filename="label-${c.labelCode}.png"`);
     const { data, info } = await sharp(png.body as Buffer)
       .ensureAlpha()
       .raw()

@@ -770,7 +770,7 @@ export function Component() {
       <title>{`${c.strainName} · Barmkeep`}</title>
       <PageHeader
         title={c.strainName}
-        description={`${formLabels[c.form]} · ${stateLabels[c.state]} · generation ${c.generation}`}
+        description={`Label ${c.labelCode} · ${formLabels[c.form]} · ${stateLabels[c.state]} · generation ${c.generation}`}
       />
       <div className="space-y-6">
         {c.suspect && c.suspectFrom ? (
