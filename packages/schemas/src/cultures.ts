@@ -424,6 +424,8 @@ export const CulturePhotoUploadSchema = z.object({
 
 export interface CultureSummaryDto {
   id: string;
+  /** the short code on the jar's label, unique among the owner's cultures, e.g. "C-017" */
+  labelCode: string;
   strainName: string;
   species: string | null;
   tags: string[];
@@ -456,8 +458,6 @@ export interface CultureParentDto {
 }
 
 export interface CultureDetailDto extends CultureSummaryDto {
-  /** the short code on the jar's label, unique among the owner's cultures, e.g. "C-017" */
-  labelCode: string;
   parent: CultureParentDto | null;
   originDetails: CultureOriginDetails;
   amount: CultureAmount;

@@ -16,6 +16,7 @@ export function presentCultureSummary(c: CultureSummaryRow, now: Date, projected
   const viability = projected ?? projectedViabilityOf(c, now).viability;
   return {
     id: c.id,
+    labelCode: c.labelCode,
     strainName: c.strainName,
     species: c.species,
     tags: c.tags,
@@ -65,7 +66,6 @@ export function presentCultureDetail(
 ): CultureDetailDto {
   return {
     ...presentCultureSummary(c, now, extra.health.viability),
-    labelCode: c.labelCode,
     parent: extra.parent,
     originDetails: c.originDetails,
     amount: c.amount,

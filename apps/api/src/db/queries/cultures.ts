@@ -75,6 +75,7 @@ function listWhere(f: CultureListFilter): SQL {
     parts.push(
       or(
         ilike(cultures.strainName, like),
+        ilike(cultures.labelCode, like),
         ilike(cultures.species, like),
         ilike(cultures.locationLabel, like),
         ilike(cultures.notes, like),
@@ -103,6 +104,7 @@ const SQL_SORTS: Record<Exclude<CultureSort, 'viability'>, (dir: 'asc' | 'desc')
 /** What a library row needs; the list leaves the JSON details and notes in the table. */
 export const summaryColumns = {
   id: cultures.id,
+  labelCode: cultures.labelCode,
   ownerUserId: cultures.ownerUserId,
   strainName: cultures.strainName,
   species: cultures.species,

@@ -526,6 +526,11 @@ describe('GET /api/cultures (library)', () => {
     expect(byForm.total).toBe(2);
     const search = (await agent.get('/api/cultures?q=quarry').expect(200)).body;
     expect(search.total).toBe(2);
+    // the code on the jar's label finds it, and every row carries its code
+    const code = all.cultures.find((c: { id: string }) => c.id === slant.id).labelCode as string;
+    expect(code).toMatch(/^[A-Z]-\d{3}$/);
+    const byCode = (await agent.get(`/api/cultures?q=${encodeURIComponent(code.toLowerCase())}`).expect(200)).body;
+    expect(byCode.cultures.map((c: { id: string }) => c.id)).toEqual([slant.id]);
     const byTag = (await agent.get('/api/cultures?tag=saison').expect(200)).body;
     expect(byTag.cultures.map((c: { id: string }) => c.id)).toEqual([dregs.id]);
     const young = (await agent.get('/api/cultures?maxAgeDays=12').expect(200)).body;

@@ -53,6 +53,7 @@ const columns = [
         </Link>
         <span className="text-sm text-ink-muted">
           <span className="md:hidden">{stateLabels[info.row.original.state]} · </span>
+          {info.row.original.labelCode ? <span className="num">{info.row.original.labelCode} · </span> : null}
           {info.row.original.locationLabel || '—'}
           {info.row.original.suspect ? (
             <span className="ml-2 inline-flex items-center gap-1 font-medium text-danger">
@@ -272,7 +273,7 @@ export function CultureLibrary() {
       <form onSubmit={onSearch} role="search" className="grid gap-3 sm:grid-cols-[1fr_auto] sm:items-end">
         <TextField
           label="Search"
-          placeholder="Strain, place, tag or note"
+          placeholder="Strain, label code, place, tag or note"
           value={search}
           onChange={(e) => setSearch(e.target.value)}
         />
