@@ -6,12 +6,13 @@ import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import type { Env } from './config/env';
-import type { Db } from './db/client';
+import { poolOf, type Db } from './db/client';
 import type { Mailer } from './mail/mailer';
 import type { FakeInbox } from './mail/fakeSmtp';
 import { createLucia } from './services/lucia';
 import type { ServiceContext } from './services/context';
 import { sessionMiddleware } from './middleware/session';
+import type { AttemptLimitOptions } from './middleware/rateLimit';
 import { originCheck } from './middleware/csrf';
 import { apiNotFound, errorHandler } from './middleware/errors';
 import { authRouter } from './routes/auth/auth';
@@ -88,11 +89,17 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   api.use(originCheck([appUrl, ...env.ALLOWED_ORIGINS.split(',').filter(Boolean)]));
   api.use(sessionMiddleware(lucia));
   api.use('/health', healthRouter(db));
-  api.use('/auth', authRouter(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT }));
+  const rateLimit = {
+    max: env.AUTH_RATE_LIMIT,
+    store: env.RATE_LIMIT_STORE,
+    pool: poolOf(db),
+    prefix: env.RATE_LIMIT_PREFIX,
+  } satisfies AttemptLimitOptions;
+  api.use('/auth', authRouter(ctx, { rateLimit }));
   api.use('/account/equipment', equipmentRouter(ctx));
   api.use('/account', accountRouter(ctx));
   api.use('/admin', adminRouter(ctx));
-  for (const mount of clubRouteMounts(ctx, { rateLimitMax: env.AUTH_RATE_LIMIT })) api.use(mount.path, mount.router);
+  for (const mount of clubRouteMounts(ctx, { rateLimit })) api.use(mount.path, mount.router);
   const storage = deps.storage ?? createStorage(env);
   api.use('/cultures', culturesRouter(ctx, storage));
   api.use('/plans', plansRouter(ctx));

@@ -29,6 +29,8 @@ export async function buildTestApp(overrides: Partial<Record<keyof Env, string>>
     DATABASE_URL: inject('databaseUrl'),
     APP_URL: ORIGIN,
     AUTH_RATE_LIMIT: '1000',
+    // test apps share the run's database: each counts its own attempts unless a test says otherwise
+    RATE_LIMIT_PREFIX: `test-${randomBytes(4).toString('hex')}`,
     ...overrides,
   });
   const database = connect(env.DATABASE_URL, { max: 4 });

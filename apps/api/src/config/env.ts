@@ -16,6 +16,10 @@ const EnvSchema = z.object({
   MAIL_FROM: z.string().default('Barmkeep <no-reply@barmkeep.test>'),
   SEED_DEMO: z.enum(['0', '1']).default('0'),
   AUTH_RATE_LIMIT: z.coerce.number().int().positive().default(20),
+  /** Where sign-in attempts are counted: 'postgres' (shared by every instance) or 'memory' (per process). */
+  RATE_LIMIT_STORE: z.enum(['postgres', 'memory']).default('postgres'),
+  /** Prefix of the attempt counters' keys, for deployments (or test apps) sharing one database. */
+  RATE_LIMIT_PREFIX: z.string().min(1).max(40).default('barmkeep'),
   SESSION_DAYS: z.coerce.number().positive().default(30),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   WEB_DIST: z.string().optional(),

@@ -24,6 +24,12 @@ export function connect(databaseUrl: string, options: { max?: number } = {}): Da
   return { db, pool, close: () => pool.end() };
 }
 
+/** The pg pool under a Drizzle handle (drizzle keeps it as `$client`; a transaction has none). */
+export function poolOf(db: Db): pg.Pool | undefined {
+  const client = (db as Db & { $client?: unknown }).$client;
+  return client instanceof pg.Pool ? client : undefined;
+}
+
 export const migrationsFolder = fileURLToPath(new URL('../../drizzle', import.meta.url));
 
 export async function runMigrations(db: Db): Promise<void> {

@@ -4,3 +4,4 @@ export * from './cultures';
 export * from './notifications';
 export * from './planning';
 export * from './clubs-bank';
+export * from './rateLimits';

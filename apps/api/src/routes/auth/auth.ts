@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { attemptLimiter } from '../../middleware/rateLimit';
+import { attemptLimiter, type AttemptLimitOptions } from '../../middleware/rateLimit';
 import { validate } from '../../middleware/validate';
 import { requireUser } from '../../middleware/session';
 import { presentUser } from '../../presenters/user';
@@ -9,9 +9,9 @@ import { findUserById } from '../../db/queries/users';
 import { notFound } from '../../lib/errors';
 import { AuthSignInSchema, AuthSignUpSchema, PasswordResetConfirmSchema, PasswordResetRequestSchema } from './schema';
 
-export function authRouter(ctx: ServiceContext, options: { rateLimitMax: number }) {
+export function authRouter(ctx: ServiceContext, options: { rateLimit: AttemptLimitOptions }) {
   const router = Router();
-  const limiter = attemptLimiter(options.rateLimitMax);
+  const limiter = attemptLimiter('auth', options.rateLimit);
 
   router.post('/sign-up', limiter, validate({ body: AuthSignUpSchema }), async (req, res) => {
     const { user, session } = await auth.signUp(ctx, req.body);

@@ -46,3 +46,33 @@ it('ignores X-Forwarded-For from an address it was not told to trust: the sender
     await strict.close();
   }
 });
+
+it('two instances on one database share one count (the PostgreSQL store), and say when to come back', async () => {
+  const prefix = `shared-${Date.now()}`;
+  const a = await buildTestApp({ AUTH_RATE_LIMIT: '4', RATE_LIMIT_PREFIX: prefix });
+  const b = await buildTestApp({ AUTH_RATE_LIMIT: '4', RATE_LIMIT_PREFIX: prefix });
+  try {
+    const attempt = (app: TestApp) =>
+      app
+        .agent()
+        .post('/api/auth/sign-in')
+        .set('X-Forwarded-For', '198.51.100.40')
+        .send({ email: 'guess@example.test', password: 'guessing-password' });
+    // four attempts spread over the two instances use the whole allowance
+    for (const app of [a, b, a, b]) expect((await attempt(app)).status).toBe(401);
+    const limited = await attempt(a);
+    expect(limited.status).toBe(429);
+    expect(Number(limited.headers['retry-after'])).toBeGreaterThan(0);
+    expect((await attempt(b)).status).toBe(429);
+    // with memory counting, each instance would have allowed four of its own
+    const c = await buildTestApp({ AUTH_RATE_LIMIT: '4', RATE_LIMIT_PREFIX: prefix, RATE_LIMIT_STORE: 'memory' });
+    try {
+      expect((await attempt(c)).status).toBe(401);
+    } finally {
+      await c.close();
+    }
+  } finally {
+    await a.close();
+    await b.close();
+  }
+});

@@ -246,7 +246,7 @@ const MATRIX: Record<string, Entry> = {
 };
 
 function mountedRoutes(): string[] {
-  const mounts = clubRouteMounts({} as ServiceContext, { rateLimitMax: 1 });
+  const mounts = clubRouteMounts({} as ServiceContext, { rateLimit: { max: 1, store: 'memory', prefix: 'matrix' } });
   const routes: string[] = [];
   for (const { path, router } of mounts) {
     for (const layer of router.stack) {

@@ -1,5 +1,6 @@
 import type { Router } from 'express';
 import type { ServiceContext } from '../../services/context';
+import type { AttemptLimitOptions } from '../../middleware/rateLimit';
 import { clubsRouter } from './clubs';
 import { invitationsRouter } from '../invitations/invitations';
 
@@ -10,7 +11,7 @@ import { invitationsRouter } from '../invitations/invitations';
  */
 export function clubRouteMounts(
   ctx: ServiceContext,
-  options: { rateLimitMax: number },
+  options: { rateLimit: AttemptLimitOptions },
 ): { path: string; router: Router }[] {
   return [
     { path: '/clubs', router: clubsRouter(ctx) },

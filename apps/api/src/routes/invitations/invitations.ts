@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { attemptLimiter } from '../../middleware/rateLimit';
+import { attemptLimiter, type AttemptLimitOptions } from '../../middleware/rateLimit';
 import { validate } from '../../middleware/validate';
 import { currentUser, requireUser } from '../../middleware/session';
 import { conflict } from '../../lib/errors';
@@ -12,9 +12,9 @@ import { InvitationAcceptSchema, InvitationLookupSchema, InvitationSignUpSchema 
  * Following an invitation link. The token travels in the body (never in a URL that ends up in
  * logs); lookups and sign-ups are rate limited like the auth routes.
  */
-export function invitationsRouter(ctx: ServiceContext, options: { rateLimitMax: number }) {
+export function invitationsRouter(ctx: ServiceContext, options: { rateLimit: AttemptLimitOptions }) {
   const router = Router();
-  const limiter = attemptLimiter(options.rateLimitMax);
+  const limiter = attemptLimiter('invitations', options.rateLimit);
 
   router.post('/lookup', limiter, validate({ body: InvitationLookupSchema }), async (req, res) => {
     res.json({ invitation: await clubs.previewInvitation(ctx, req.body.token) });
