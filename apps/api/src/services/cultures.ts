@@ -465,7 +465,8 @@ export async function addCultureEvent(ctx: ServiceContext, actor: Actor, id: str
         if (!old || old.cultureId !== row.id) {
           throw validationFailed({ 'body.supersedesEventId': ['No entry in this culture’s log has this id'] });
         }
-        if (!CORRECTABLE_EVENT_KINDS.includes(old.kind)) {
+        const written = (old.data as { change?: unknown } | null)?.change;
+        if (!CORRECTABLE_EVENT_KINDS.includes(old.kind) || written === 'details' || written === 'parent') {
           throw validationFailed({
             'body.supersedesEventId': ['This entry changed the culture; record a new one instead of correcting it'],
           });

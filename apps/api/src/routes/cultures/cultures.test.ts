@@ -224,6 +224,17 @@ describe('PATCH /api/cultures/:id', () => {
     await agent.patch(`/api/cultures/${c.id}`).send({ strainName: 'Renamed', parentId: c.id }).expect(400);
     expect((await agent.get(`/api/cultures/${c.id}`).expect(200)).body.culture.strainName).toBe('Jar 4 farmhouse ale');
     expect(await notes()).toHaveLength(1);
+    // the entry the app wrote is history: it cannot be "corrected" into something else
+    const fake = await agent
+      .post(`/api/cultures/${c.id}/events`)
+      .send({
+        kind: 'note',
+        notes: 'It was never renamed',
+        supersedesEventId: (rename as unknown as { id: string }).id,
+      })
+      .expect(400);
+    expect(fake.body.error.fields['body.supersedesEventId'][0]).toMatch(/record a new one/);
+    expect(await notes()).toHaveLength(1);
   });
 
   it('rejects a parent that would close a loop and changes nothing', async () => {
