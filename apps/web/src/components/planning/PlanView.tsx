@@ -20,6 +20,7 @@ import {
   formatWhen,
   type Units,
 } from '../../lib/planningFormat';
+import { readableSource } from '../../lib/sources';
 
 type Verdict = BrewPlanDto['verdict'];
 
@@ -117,7 +118,7 @@ export function PlanView({ plan, units, onAddVessel, stepOffset = 0 }: PlanViewP
             <Num>{formatCells(plan.targetCells)}</Num>
             {plan.rate != null ? (
               <span className="block text-sm font-normal text-ink-muted">
-                <Num>{plan.rate}</Num> million cells per mL per °P — {plan.rateSource}
+                <Num>{plan.rate}</Num> million cells per mL per °P — {readableSource(plan.rateSource)}
               </span>
             ) : null}
           </Fact>

@@ -47,6 +47,7 @@ import {
 import { formatDateTime } from '../../lib/format';
 import { OfferInClub } from '../../components/clubs/OfferInClub';
 import { EditDetails } from './EditDetails';
+import { readableSource } from '../../lib/sources';
 
 const ViabilityChart = lazy(() => import('./ViabilityChart'));
 
@@ -149,7 +150,7 @@ function Health({ c }: { c: CultureDetailDto }) {
           {h.cells.kind === 'estimate' ? 'Estimate: ' : 'From your count: '}
           total <span className="num">{formatCells(h.cells.total)}</span> (range{' '}
           <span className="num">{formatCells(h.cells.low)}</span>–
-          <span className="num">{formatCells(h.cells.high)}</span>). {h.cells.basis}
+          <span className="num">{formatCells(h.cells.high)}</span>). {readableSource(h.cells.basis)}
         </p>
       ) : h.cellsMissing ? (
         <p className="text-sm text-ink-muted">{h.cellsMissing}</p>
@@ -174,7 +175,7 @@ function Health({ c }: { c: CultureDetailDto }) {
       <details className="text-sm text-ink-muted">
         <summary className="cursor-pointer">How this is worked out</summary>
         <p className="mt-1">
-          Model: {h.model}. {h.source}
+          Model: {h.model}. {readableSource(h.source)}
         </p>
       </details>
     </Card>
