@@ -3,6 +3,7 @@ import type { Db } from './client';
 import { clubs, memberships, users } from './schema';
 import { hashPassword } from '../lib/password';
 import { seedDemoCultures } from './seeds/cultures';
+import { seedDemoClubActivity } from './seeds/clubActivity';
 
 /** An invented club and its members. Every name here is made up. */
 export const DEMO_PASSWORD = 'sourdough-lantern-42';
@@ -37,7 +38,7 @@ export const DEMO_MEMBERS = [
 
 export type DemoSeeder = (db: Db) => Promise<void>;
 /** Other features register the demo rows they own (cultures, plans…) here. */
-export const demoSeeders: DemoSeeder[] = [seedDemoCultures];
+export const demoSeeders: DemoSeeder[] = [seedDemoCultures, (db) => seedDemoClubActivity(db, DEMO_MEMBERS)];
 
 /** Seeds only an empty database; returns the sign-ins to print. */
 export async function seedDemoIfEmpty(db: Db): Promise<string[]> {
