@@ -76,6 +76,10 @@ test('invite, sign up from the link, ask for a strain, accept, confirm receipt, 
   await shot(guest, 'clubs-handoff-03-request-form');
   await guest.getByRole('button', { name: 'Send the request' }).click();
   await expect(guest.getByText(`Request for ${strain} sent`)).toBeVisible();
+  // the bank no longer offers to ask twice
+  await expect(row).toContainText('You asked');
+  await expect(row.getByRole('button', { name: `Ask for ${strain}` })).toHaveCount(0);
+  await expect(row.getByRole('link', { name: 'See your request' })).toBeVisible();
 
   // The keeper accepts.
   await page.goto(`${clubUrl}/requests`);

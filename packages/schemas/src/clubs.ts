@@ -195,6 +195,8 @@ export interface ClubListingDto {
   /** 0–1, today's projection from the keeper's records */
   projectedViability: number | null;
   canRequest: boolean;
+  /** the viewer's own request for it still under way, if any */
+  myRequest: { id: string; status: string } | null;
   /** units left when the culture is club-owned stock; null for a member's own culture */
   stock: { unit: ClubStockUnit; unitsLeft: number } | null;
   listedAt: string;

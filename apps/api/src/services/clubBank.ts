@@ -46,6 +46,7 @@ export async function listBank(ctx: ServiceContext, actor: Actor, clubId: string
   const access = await loadClubFor(ctx.db, actor, clubId, 'view');
   const now = ctx.now();
   const rows = await bank.listBank(ctx.db, clubId);
+  const mine = new Map((await bank.liveRequestsOf(ctx.db, clubId, actor.id)).map((r) => [r.listingId, r]));
   return rows.map(({ listing, culture, keeperName, stock }) => {
     const available =
       !UNAVAILABLE_STATES.has(culture.state) && !culture.suspect && (stock === null || stock.unitsLeft > 0);
@@ -62,7 +63,8 @@ export async function listBank(ctx: ServiceContext, actor: Actor, clubId: string
       keeper: { id: culture.ownerUserId, name: keeperName },
       note: listing.note,
       projectedViability: projected,
-      canRequest: access.role !== null && available && culture.ownerUserId !== actor.id,
+      canRequest: access.role !== null && available && culture.ownerUserId !== actor.id && !mine.has(listing.id),
+      myRequest: mine.has(listing.id) ? { id: mine.get(listing.id)!.id, status: mine.get(listing.id)!.status } : null,
       stock: stock ? { unit: stock.unit, unitsLeft: stock.unitsLeft } : null,
       listedAt: iso(listing.createdAt)!,
     };
@@ -218,6 +220,11 @@ export async function createRequest(
     throw validationFailed({ 'body.neededBy': ['This date has passed'] });
   }
   return ctx.db.transaction(async (tx) => {
+    // one request under way per person and listing; simultaneous asks queue on the listing's row
+    await bank.lockListing(tx, found.listing.id);
+    if ((await bank.liveRequestsOf(tx, clubId, actor.id, found.listing.id)).length > 0) {
+      throw conflict('already_requested', 'You have already asked for this strain; see your requests');
+    }
     const request = await bank.insertRequest(tx, {
       id: newId(),
       clubId,

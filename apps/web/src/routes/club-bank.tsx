@@ -291,6 +291,10 @@ export function Component() {
                 >
                   Ask for it
                 </Button>
+              ) : l.myRequest ? (
+                <Link to="../requests" className="inline-flex min-h-10 items-center px-2 text-sm text-accent underline">
+                  See your request
+                </Link>
               ) : null}
               {l.keeper.id === me?.id || steward ? (
                 <Button

@@ -1,4 +1,4 @@
-import { and, desc, eq, isNull, or, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import type { DbOrTx } from './clubs';
 import {
@@ -24,6 +24,29 @@ export async function findLiveListing(db: DbOrTx, clubId: string, listingId: str
     .where(and(eq(clubListings.clubId, clubId), eq(clubListings.id, listingId), isNull(clubListings.withdrawnAt)))
     .limit(1);
   return row;
+}
+
+/** Statuses of a request still under way (not declined, received or cancelled). */
+export const LIVE_REQUEST_STATUSES = ['awaiting_approval', 'open', 'proposed', 'accepted'] as const;
+
+/** Locks the listing row: requests for one listing queue here, so a person cannot ask twice at once. */
+export async function lockListing(db: DbOrTx, listingId: string) {
+  await db.select({ id: clubListings.id }).from(clubListings).where(eq(clubListings.id, listingId)).for('update');
+}
+
+/** The person's requests still under way in a club, by listing. */
+export async function liveRequestsOf(db: DbOrTx, clubId: string, requesterUserId: string, listingId?: string) {
+  return db
+    .select({ id: strainRequests.id, listingId: strainRequests.listingId, status: strainRequests.status })
+    .from(strainRequests)
+    .where(
+      and(
+        eq(strainRequests.clubId, clubId),
+        eq(strainRequests.requesterUserId, requesterUserId),
+        inArray(strainRequests.status, [...LIVE_REQUEST_STATUSES]),
+        listingId ? eq(strainRequests.listingId, listingId) : undefined,
+      ),
+    );
 }
 
 export async function withdrawListing(db: DbOrTx, listingId: string, now: Date) {

@@ -124,6 +124,34 @@ describe('club bank, requests and handoffs', () => {
     await steward.agent.get(`/api/clubs/${clubId}/activity?before=yesterday`).expect(400);
   });
 
+  it('one request under way per member and strain, even when asked five times at once', async () => {
+    const root = await keeperCulture();
+    const listing = await keeper.agent.post(`/api/clubs/${clubId}/bank`).send({ cultureId: root.id }).expect(201);
+    const listingId = listing.body.listing.id as string;
+    const asks = await Promise.all(
+      Array.from({ length: 5 }, () =>
+        asker.agent.post(`/api/clubs/${clubId}/requests`).send({ listingId, message: 'May I have some?' }),
+      ),
+    );
+    expect(asks.map((r) => r.status).sort()).toEqual([201, 409, 409, 409, 409]);
+    expect(asks.find((r) => r.status === 409)!.body.error.code).toBe('already_requested');
+    const mine = (await asker.agent.get(`/api/clubs/${clubId}/requests`).expect(200)).body.requests.filter(
+      (r: { listingId: string }) => r.listingId === listingId,
+    );
+    expect(mine).toHaveLength(1);
+    // the bank says so instead of offering to ask again
+    const entry = (await asker.agent.get(`/api/clubs/${clubId}/bank`).expect(200)).body.listings.find(
+      (l: { id: string }) => l.id === listingId,
+    );
+    expect(entry).toMatchObject({ canRequest: false, myRequest: { id: mine[0].id, status: 'open' } });
+    // once declined, asking again is allowed
+    await keeper.agent
+      .post(`/api/clubs/${clubId}/requests/${mine[0].id}/respond`)
+      .send({ action: 'decline', note: 'None to spare this month' })
+      .expect(200);
+    await asker.agent.post(`/api/clubs/${clubId}/requests`).send({ listingId, message: 'Next month?' }).expect(201);
+  });
+
   it('refuses to list someone else’s culture and hides requests from uninvolved members', async () => {
     const root = await keeperCulture();
     const res = await asker.agent.post(`/api/clubs/${clubId}/bank`).send({ cultureId: root.id }).expect(400);

@@ -9,6 +9,7 @@ export function availabilityOf(
   if (l.suspect || l.state === 'quarantined') return { word: 'No: suspect', tone: 'danger' };
   if (l.stock && l.stock.unitsLeft === 0) return { word: 'No: none left', tone: 'no' };
   if (l.keeper.id === myId) return { word: l.stock ? 'You hold it' : 'Yours', tone: 'no' };
+  if (l.myRequest) return { word: 'You asked', tone: 'ok' };
   if (l.canRequest) return { word: 'Yes', tone: 'ok' };
   return { word: 'Not now', tone: 'no' };
 }
