@@ -1,10 +1,11 @@
-import { afterAll, beforeAll, expect, inject, it } from 'vitest';
+import { afterAll, beforeAll, expect, it } from 'vitest';
 import { execFile } from 'node:child_process';
 import { promisify } from 'node:util';
 import { mkdtemp, mkdir, writeFile, readFile, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import pg from 'pg';
+import { adminQuery, databaseUrl } from './databases';
 import { connect, runMigrations } from '../src/db/client';
 import { users, clubs, memberships } from '../src/db/schema';
 
@@ -14,22 +15,7 @@ const stamp = `${Date.now()}_${process.pid}`;
 // Own source and target databases: other test files write to the shared test database meanwhile.
 const sourceName = `barmkeep_bk_src_${stamp}`;
 const targetName = `barmkeep_bk_dst_${stamp}`;
-const urlOf = (name: string) => {
-  const u = new URL(inject('databaseUrl'));
-  u.pathname = `/${name}`;
-  return u.toString();
-};
 let work: string;
-
-async function admin(sql: string) {
-  const c = new pg.Client({ connectionString: urlOf('postgres') });
-  await c.connect();
-  try {
-    await c.query(sql);
-  } finally {
-    await c.end();
-  }
-}
 
 async function tableFingerprints(url: string) {
   const c = new pg.Client({ connectionString: url });
@@ -53,9 +39,9 @@ async function tableFingerprints(url: string) {
 
 beforeAll(async () => {
   work = await mkdtemp(path.join(tmpdir(), 'barmkeep-backup-'));
-  await admin(`create database "${sourceName}"`);
-  await admin(`create database "${targetName}"`);
-  const source = connect(urlOf(sourceName), { max: 1 });
+  await adminQuery(`create database "${sourceName}"`);
+  await adminQuery(`create database "${targetName}"`);
+  const source = connect(databaseUrl(sourceName), { max: 1 });
   await runMigrations(source.db);
   await source.db.insert(users).values(
     [1, 2, 3].map((i) => ({
@@ -71,8 +57,8 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  await admin(`drop database if exists "${sourceName}" with (force)`);
-  await admin(`drop database if exists "${targetName}" with (force)`);
+  await adminQuery(`drop database if exists "${sourceName}" with (force)`);
+  await adminQuery(`drop database if exists "${targetName}" with (force)`);
   await rm(work, { recursive: true, force: true });
 });
 
@@ -83,17 +69,17 @@ it('backs up the database and uploads and restores them identically', async () =
 
   const backupDir = path.join(work, 'backup');
   await run('bash', [path.join(root, 'infra/backup.sh'), backupDir], {
-    env: { ...process.env, DATABASE_URL: urlOf(sourceName), UPLOADS_DIR: uploads },
+    env: { ...process.env, DATABASE_URL: databaseUrl(sourceName), UPLOADS_DIR: uploads },
   });
   const restoredUploads = path.join(work, 'restored-uploads');
   const restore = () =>
     run('bash', [path.join(root, 'infra/restore.sh'), backupDir], {
-      env: { ...process.env, DATABASE_URL: urlOf(targetName), UPLOADS_DIR: restoredUploads },
+      env: { ...process.env, DATABASE_URL: databaseUrl(targetName), UPLOADS_DIR: restoredUploads },
     });
   await restore();
 
-  const before = await tableFingerprints(urlOf(sourceName));
-  const after = await tableFingerprints(urlOf(targetName));
+  const before = await tableFingerprints(databaseUrl(sourceName));
+  const after = await tableFingerprints(databaseUrl(targetName));
   expect(before['public.users']!.rows).toBe(3);
   expect(before['drizzle.__drizzle_migrations']!.rows).toBeGreaterThan(0);
   expect(after).toEqual(before);

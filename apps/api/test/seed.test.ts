@@ -1,35 +1,21 @@
-import { afterAll, beforeAll, expect, inject, it } from 'vitest';
-import pg from 'pg';
+import { afterAll, beforeAll, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
+import { adminQuery, databaseUrl } from './databases';
 import { connect, runMigrations, type Database } from '../src/db/client';
 import { DEMO_MEMBERS, seedDemoIfEmpty } from '../src/db/seed';
 import { clubListings, cultures, notifications, starterPlans, strainRequests, users } from '../src/db/schema';
 
 // The demo seed only fills an empty database, so it gets one of its own.
 const name = `barmkeep_seed_${Date.now()}_${process.pid}`;
-const urlOf = (db: string) => {
-  const u = new URL(inject('databaseUrl'));
-  u.pathname = `/${db}`;
-  return u.toString();
-};
-async function admin(sql: string) {
-  const c = new pg.Client({ connectionString: urlOf('postgres') });
-  await c.connect();
-  try {
-    await c.query(sql);
-  } finally {
-    await c.end();
-  }
-}
 let database: Database;
 beforeAll(async () => {
-  await admin(`create database "${name}"`);
-  database = connect(urlOf(name), { max: 2 });
+  await adminQuery(`create database "${name}"`);
+  database = connect(databaseUrl(name), { max: 2 });
   await runMigrations(database.db);
 });
 afterAll(async () => {
   await database.close();
-  await admin(`drop database if exists "${name}" with (force)`);
+  await adminQuery(`drop database if exists "${name}" with (force)`);
 });
 
 it('fills an empty database with the invented club at work, through the services, and only once', async () => {
