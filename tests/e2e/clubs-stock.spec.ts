@@ -85,6 +85,7 @@ test('a steward makes frozen vials club stock, corrects the count, and withdraws
     .first()
     .click();
   await expect(page.getByText('Weirside house ale vials').first()).toBeVisible();
+  await expect(page.getByText(/club stock/).first()).toBeVisible();
   await expect(page.getByText('Weirside house ale').first()).toBeVisible();
   await shot(page, 'clubs-stock-02-lineage');
 });

@@ -522,6 +522,8 @@ export interface LineageNodeDto {
   form: CultureForm | null;
   suspect: boolean;
   owner: { id: string; name: string } | null;
+  /** owned by a club as its stock (the owner named is the steward who holds it) */
+  clubStock: boolean;
 }
 
 export interface CulturePhotoDto {

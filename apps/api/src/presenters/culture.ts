@@ -126,6 +126,7 @@ export function presentLineageNode(n: LineageRow, detail: LineageDetail): Lineag
       form: null,
       suspect: false,
       owner: null,
+      clubStock: false,
     };
   }
   return {
@@ -140,6 +141,7 @@ export function presentLineageNode(n: LineageRow, detail: LineageDetail): Lineag
     form: n.form,
     suspect: n.suspect,
     owner: n.owner_name ? { id: n.owner_user_id, name: n.owner_name } : null,
+    clubStock: n.owner_club_id !== null,
   };
 }
 

@@ -48,8 +48,12 @@ export function Component() {
                   {p.name}
                 </Link>
                 <p className="text-ink-muted">
-                  {words[p.status]} · {p.strainNames.join(' + ') || 'culture no longer available'} · {p.stepsDone}{' '}
-                  step(s) done
+                  {words[p.status]} · {p.strainNames.join(' + ') || 'culture no longer available'} ·{' '}
+                  {p.stepsDone === 0
+                    ? 'no step done yet'
+                    : p.stepsDone === 1
+                      ? '1 step done'
+                      : `${p.stepsDone} steps done`}
                   {p.brewAt ? (
                     <>
                       {' '}

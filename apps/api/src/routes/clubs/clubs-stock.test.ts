@@ -100,6 +100,13 @@ describe('club-owned stock', () => {
       ownerUserId: member.id,
       storageTempC: -18,
     });
+    // in the member's lineage the stock is marked as the club's, the member's own culture is not
+    const tree = (await member.agent.get(`/api/cultures/${out.body.cultureId}/lineage`).expect(200)).body.nodes as {
+      id: string;
+      clubStock: boolean;
+    }[];
+    expect(tree.find((n) => n.id === vials.id)?.clubStock).toBe(true);
+    expect(tree.find((n) => n.id === out.body.cultureId)?.clubStock).toBe(false);
     const notice = await t.database.db
       .select()
       .from(notifications)

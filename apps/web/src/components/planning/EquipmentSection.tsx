@@ -158,9 +158,9 @@ function EquipmentForm({ equipment, user }: { equipment: EquipmentDto; user: Use
             'No counted steps yet. Count a finished starter and Barmkeep compares it with the prediction.'
           ) : (
             <>
-              From <span className="num">{gc.steps}</span> counted step(s) your starters grew{' '}
-              <span className="num">{gc.ratio.toFixed(2)}</span>× the new cells the model predicts (geometric mean of
-              measured ÷ predicted). {gc.optedIn ? 'New plans use it.' : 'New plans ignore it until you opt in.'}
+              From <span className="num">{gc.steps}</span> counted {gc.steps === 1 ? 'step' : 'steps'} your starters
+              grew <span className="num">{gc.ratio.toFixed(2)}</span>× the new cells the model predicts (geometric mean
+              of measured ÷ predicted). {gc.optedIn ? 'New plans use it.' : 'New plans ignore it until you opt in.'}
             </>
           )}
         </p>

@@ -177,9 +177,10 @@ export function Component() {
                       </text>
                       <text x={7} y={30} fontSize={11} fill={danger ? 'var(--color-danger)' : 'var(--color-ink-muted)'}>
                         gen {d.generation} · {d.state ? stateLabels[d.state] : ''}
+                        {d.clubStock ? ' · club stock' : ''}
                         {d.suspect ? ' · suspect' : ''}
                       </text>
-                      <title>{`${d.strainName} — generation ${d.generation}, ${d.state ? stateLabels[d.state] : ''}${d.owner ? `, kept by ${d.owner.name}` : ''}${d.suspect ? ', suspect' : ''}`}</title>
+                      <title>{`${d.strainName} — generation ${d.generation}, ${d.state ? stateLabels[d.state] : ''}${d.owner ? `, kept by ${d.owner.name}` : ''}${d.clubStock ? ' for the club' : ''}${d.suspect ? ', suspect' : ''}`}</title>
                     </a>
                   ) : (
                     <>
@@ -245,7 +246,7 @@ function PathNode({ d, danger, isFocus }: { d: LineageNodeDto; danger: boolean; 
         {(d.strainName ?? '').length > 24 ? '…' : ''}
       </text>
       <text x={7} y={30} fontSize={11} fill={danger ? 'var(--color-danger)' : 'var(--color-ink-muted)'}>
-        gen {d.generation} · {keeper.slice(0, 18)}
+        gen {d.generation} · {d.clubStock ? 'club stock' : keeper.slice(0, 18)}
         {d.suspect ? ' · suspect' : ''}
       </text>
       <title>{`${d.strainName} — generation ${d.generation}, kept by ${keeper}${d.suspect ? ', suspect' : ''}. Only its keeper can open it.`}</title>
