@@ -80,6 +80,13 @@ test('invite, sign up from the link, ask for a strain, accept, confirm receipt, 
   await expect(row).toContainText('You asked');
   await expect(row.getByRole('button', { name: `Ask for ${strain}` })).toHaveCount(0);
   await expect(row.getByRole('link', { name: 'See your request' })).toBeVisible();
+  // on the requests page the one who asked may take it back; asked once more, keeping it changes nothing
+  await row.getByRole('link', { name: 'See your request' }).click();
+  const own = guest.getByRole('listitem', { name: `Request for ${strain} by ${invitee.name}` });
+  await own.getByRole('button', { name: 'Take back my request' }).click();
+  await expect(own.getByText(/Take this request back\?/)).toBeVisible();
+  await own.getByRole('button', { name: 'Keep it' }).click();
+  await expect(own.getByRole('button', { name: 'Take back my request' })).toBeVisible();
 
   // The keeper accepts.
   await page.goto(`${clubUrl}/requests`);
@@ -91,8 +98,9 @@ test('invite, sign up from the link, ask for a strain, accept, confirm receipt, 
   await waiting.getByRole('button', { name: 'Accept' }).click();
   await expect(page.getByText('Accepted: waiting for the handover')).toBeVisible();
 
-  // The recipient confirms receipt, which starts their culture under the keeper's.
-  await guest.getByRole('link', { name: 'Requests' }).click();
+  // The recipient (still on the requests page) comes back to it later and confirms receipt, which
+  // starts their culture under the keeper's.
+  await guest.reload();
   const mine = guest.getByRole('listitem', { name: `Request for ${strain} by ${invitee.name}` });
   await expect(mine).toContainText('Bring a cool bag on Sunday');
   await mine.getByLabel('Where you keep it').fill('Garage fridge');

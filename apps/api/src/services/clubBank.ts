@@ -403,6 +403,33 @@ async function createChildCulture(
 }
 
 /**
+ * The person who asked takes the request back while it is under way (before receipt): it is closed
+ * as cancelled, the keeper is told, and the person may ask again later.
+ */
+export async function cancelRequest(ctx: ServiceContext, actor: Actor, clubId: string, requestId: string) {
+  await loadClubFor(ctx.db, actor, clubId, 'member');
+  const now = ctx.now();
+  return ctx.db.transaction(async (tx) => {
+    const request = await bank.findRequestForUpdate(tx, clubId, requestId);
+    if (!request) throw notFound('This request');
+    if (request.requesterUserId !== actor.id) throw forbidden('Only the person who asked can take it back');
+    if (!LIVE_STATUSES.has(request.status)) throw conflict('request_closed', 'This request is closed already');
+    const updated = await bank.updateRequest(tx, requestId, { status: 'cancelled', updatedAt: now });
+    const culture = await findCultureById(tx, request.cultureId);
+    await tell(
+      ctx,
+      tx,
+      request.keeperUserId,
+      request,
+      'cancelled',
+      `${actor.name} no longer needs ${culture?.strainName ?? 'the strain'}`,
+      '',
+    );
+    return { id: updated.id, status: updated.status };
+  });
+}
+
+/**
  * The recipient confirms receipt: a new culture owned by them whose parent is the giver's culture,
  * generation carried forward (a gift keeps the parent's generation), suspicion inherited.
  */

@@ -8,7 +8,7 @@ import { Check, CircleCheck, CircleX, Clock, Hourglass, PackageCheck, X, type Lu
 import { StrainRequestReceiveSchema, StrainRequestRespondSchema, type StrainRequestDto } from '@barmkeep/schemas';
 import { authQueries } from '../api/auth/queries';
 import { clubQueries } from '../api/clubs/queries';
-import { useReceiveMutation, useRespondMutation } from '../api/clubs/mutations';
+import { useCancelRequestMutation, useReceiveMutation, useRespondMutation } from '../api/clubs/mutations';
 import { Button, Card, EmptyState, FormAlert, Loading, Notice, TextField } from '../components';
 import { ColdCaution, isFrozenForm } from '../components/clubs/ColdCaution';
 import { TextArea } from '../components/TextArea';
@@ -25,7 +25,7 @@ const statusWords: Record<Status, { word: string; Icon: LucideIcon }> = {
   accepted: { word: 'Accepted: waiting for the handover', Icon: CircleCheck },
   declined: { word: 'Declined', Icon: CircleX },
   received: { word: 'Handed over', Icon: PackageCheck },
-  cancelled: { word: 'Cancelled', Icon: X },
+  cancelled: { word: 'Taken back', Icon: X },
 };
 
 function StatusWord({ status }: { status: Status }) {
@@ -200,6 +200,39 @@ function Receive({ r, form }: { r: StrainRequestDto; form: string | null }) {
   );
 }
 
+/** Take one's own request back while it is under way (asks once more first). */
+function TakeBack({ r }: { r: StrainRequestDto }) {
+  const club = useClub();
+  const cancel = useCancelRequestMutation(club.id);
+  const [asking, setAsking] = useState(false);
+  if (!['awaiting_approval', 'open', 'proposed', 'accepted'].includes(r.status)) return null;
+  return (
+    <div className="mt-3 flex flex-wrap items-center gap-2">
+      {asking ? (
+        <>
+          <span className="text-sm">Take this request back? {r.keeper.name} is told.</span>
+          <Button
+            variant="danger"
+            className="min-h-10 px-3 text-sm"
+            busy={cancel.isPending}
+            onClick={() => cancel.mutate(r.id)}
+          >
+            Yes, take it back
+          </Button>
+          <Button variant="secondary" className="min-h-10 px-3 text-sm" onClick={() => setAsking(false)}>
+            Keep it
+          </Button>
+        </>
+      ) : (
+        <Button variant="quiet" className="min-h-10 px-2 text-sm" onClick={() => setAsking(true)}>
+          Take back my request
+        </Button>
+      )}
+      {cancel.error ? <p className="w-full text-sm text-danger">{cancel.error.message}</p> : null}
+    </div>
+  );
+}
+
 function RequestItem({ r, children }: { r: StrainRequestDto; children?: React.ReactNode }) {
   return (
     <li
@@ -306,6 +339,7 @@ export function Component() {
         render={(r) => (
           <RequestItem key={r.id} r={r}>
             {r.status === 'accepted' ? <Receive r={r} form={formOf(r)} /> : null}
+            <TakeBack r={r} />
             {r.receivedCultureId ? (
               <Notice tone="success" title="It is in your library now" className="mt-3">
                 <Link to={`/cultures/${r.receivedCultureId}`} className="text-accent underline">

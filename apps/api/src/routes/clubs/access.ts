@@ -140,6 +140,15 @@ export const access: AccessTable = {
     expect: inClub(statuses(401, 404, 200, 200, 200, 403)),
   },
   // the caller asked and the keeper accepted; the one who asked confirms receipt
+  // the caller asked (when they are in the club); only the one who asked takes it back
+  'POST /api/clubs/:clubId/requests/:requestId/cancel': {
+    prepare: async (w, c) => {
+      const other = await w.extraMember(c.clubId);
+      const requester = inCaseClub(c) ? c.me!.id : other.id;
+      return { vars: { requestId: await requestBetween(w, c.clubId, other.id, requester, 'open') }, body: {} };
+    },
+    expect: inClub(statuses(401, 404, 200, 200, 200, 403)),
+  },
   'POST /api/clubs/:clubId/requests/:requestId/receive': {
     prepare: async (w, c) => {
       const other = await w.extraMember(c.clubId);

@@ -149,7 +149,18 @@ describe('club bank, requests and handoffs', () => {
       .post(`/api/clubs/${clubId}/requests/${mine[0].id}/respond`)
       .send({ action: 'decline', note: 'None to spare this month' })
       .expect(200);
-    await asker.agent.post(`/api/clubs/${clubId}/requests`).send({ listingId, message: 'Next month?' }).expect(201);
+    const again = await asker.agent
+      .post(`/api/clubs/${clubId}/requests`)
+      .send({ listingId, message: 'Next month?' })
+      .expect(201);
+    // the one who asked can take it back (nobody else can), and then ask anew
+    await steward.agent.post(`/api/clubs/${clubId}/requests/${again.body.request.id}/cancel`).expect(403);
+    const back = await asker.agent.post(`/api/clubs/${clubId}/requests/${again.body.request.id}/cancel`).expect(200);
+    expect(back.body.request).toEqual({ id: again.body.request.id, status: 'cancelled' });
+    await asker.agent.post(`/api/clubs/${clubId}/requests/${again.body.request.id}/cancel`).expect(409);
+    const told = await t.database.db.select().from(notifications).where(eq(notifications.userId, keeper.id));
+    expect(told.some((n) => n.title === 'Asker Ash no longer needs ' + root.strainName)).toBe(true);
+    await asker.agent.post(`/api/clubs/${clubId}/requests`).send({ listingId, message: 'Later after all' }).expect(201);
   });
 
   it('refuses to list someone else’s culture and hides requests from uninvolved members', async () => {

@@ -193,6 +193,14 @@ const MATRIX: Record<string, Entry> = {
     expect: statuses(401, 404, 200, 200, 200, 403),
   },
   // the caller asked and the keeper accepted; the one who asked confirms receipt
+  'POST /api/clubs/:clubId/requests/:requestId/cancel': {
+    prepare: async (w, c) => {
+      const other = await extraMember(w, c.clubId);
+      const requester = inClub(c) ? c.me!.id : other.id;
+      return { vars: { requestId: await requestBetween(w, c.clubId, other.id, requester, 'open') }, body: {} };
+    },
+    expect: statuses(401, 404, 200, 200, 200, 403),
+  },
   'POST /api/clubs/:clubId/requests/:requestId/receive': {
     prepare: async (w, c) => {
       const other = await extraMember(w, c.clubId);

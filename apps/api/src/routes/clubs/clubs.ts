@@ -152,6 +152,15 @@ export function clubsRouter(ctx: ServiceContext) {
   );
 
   router.post(
+    '/:clubId/requests/:requestId/cancel',
+    validate({ params: StrainRequestParamsSchema }),
+    async (req, res) => {
+      const { clubId, requestId } = p(req);
+      res.json({ request: await clubBank.cancelRequest(ctx, actor(req), clubId, requestId) });
+    },
+  );
+
+  router.post(
     '/:clubId/requests/:requestId/receive',
     validate({ params: StrainRequestParamsSchema, body: StrainRequestReceiveSchema }),
     async (req, res) => {

@@ -154,6 +154,17 @@ export function useRespondMutation(clubId: string) {
   );
 }
 
+/** The person who asked takes the request back. */
+export function useCancelRequestMutation(clubId: string) {
+  return useClubChange(clubId, (requestId: string) =>
+    api
+      .post<{ request: { id: string; status: string } }>(
+        `${clubPath(clubId)}/requests/${encodeURIComponent(requestId)}/cancel`,
+      )
+      .then((r) => r.request),
+  );
+}
+
 export function useReceiveMutation(clubId: string) {
   return useClubChange(
     clubId,
