@@ -202,6 +202,9 @@ export interface ClubListingDto {
   listedAt: string;
 }
 
+/** Statuses of a request still under way: not declined, received or taken back. */
+export const LIVE_REQUEST_STATUSES = ['awaiting_approval', 'open', 'proposed', 'accepted'] as const;
+
 export interface StrainRequestDto {
   id: string;
   listingId: string;

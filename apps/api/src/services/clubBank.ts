@@ -10,6 +10,7 @@ import type {
   StrainRequestReceiveInput,
   StrainRequestRespondInput,
 } from '@barmkeep/schemas';
+import { LIVE_REQUEST_STATUSES } from '@barmkeep/schemas';
 import { conflict, forbidden, notFound, validationFailed } from '../lib/errors';
 import { newId } from '../lib/ids';
 import * as bank from '../db/queries/clubBank';
@@ -32,7 +33,7 @@ import { notify } from './notify';
 
 const iso = (d: Date | string | null) => (d ? new Date(d).toISOString() : null);
 const UNAVAILABLE_STATES = new Set(['discarded', 'used_up', 'quarantined']);
-const LIVE_STATUSES = new Set(['awaiting_approval', 'open', 'proposed', 'accepted']);
+const LIVE_STATUSES = new Set<string>(LIVE_REQUEST_STATUSES);
 
 function projectionOf(culture: CultureRow, now: Date): number | null {
   try {
@@ -48,6 +49,7 @@ export async function listBank(ctx: ServiceContext, actor: Actor, clubId: string
   const rows = await bank.listBank(ctx.db, clubId);
   const mine = new Map((await bank.liveRequestsOf(ctx.db, clubId, actor.id)).map((r) => [r.listingId, r]));
   return rows.map(({ listing, culture, keeperName, stock }) => {
+    const myRequest = mine.get(listing.id);
     const available =
       !UNAVAILABLE_STATES.has(culture.state) && !culture.suspect && (stock === null || stock.unitsLeft > 0);
     const projected = projectionOf(culture, now);
@@ -63,8 +65,8 @@ export async function listBank(ctx: ServiceContext, actor: Actor, clubId: string
       keeper: { id: culture.ownerUserId, name: keeperName },
       note: listing.note,
       projectedViability: projected,
-      canRequest: access.role !== null && available && culture.ownerUserId !== actor.id && !mine.has(listing.id),
-      myRequest: mine.has(listing.id) ? { id: mine.get(listing.id)!.id, status: mine.get(listing.id)!.status } : null,
+      canRequest: access.role !== null && available && culture.ownerUserId !== actor.id && !myRequest,
+      myRequest: myRequest ? { id: myRequest.id, status: myRequest.status } : null,
       stock: stock ? { unit: stock.unit, unitsLeft: stock.unitsLeft } : null,
       listedAt: iso(listing.createdAt)!,
     };

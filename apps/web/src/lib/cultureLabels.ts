@@ -79,3 +79,8 @@ export function attentionText(days: number | null): string {
   if (days === 0) return 'Today';
   return `in ${days} d`;
 }
+
+/** Whether a culture may go into a batch: still kept (active or stored) and not suspect; the API says the same. */
+export function canBePitched(c: { state: CultureState; suspect: boolean }): boolean {
+  return (c.state === 'active' || c.state === 'stored') && !c.suspect;
+}

@@ -7,6 +7,7 @@ import { sgFromPlato, usGallonsFromLitres } from '@barmkeep/core';
 import { authQueries } from '../api/auth/queries';
 import { planningQueries } from '../api/planning/queries';
 import { cultureQueries } from '../api/cultures/queries';
+import { canBePitched } from '../lib/cultureLabels';
 import { useCreateBatchMutation } from '../api/planning/mutations';
 import { isApiError } from '../api/client';
 import { Button, Card, FormAlert, Loading, Notice, PageHeader, TextField } from '../components';
@@ -49,7 +50,7 @@ function CulturePicker({
         {list.error.message}
       </Notice>
     );
-  const usable = list.data.cultures.filter((c) => (c.state === 'active' || c.state === 'stored') && !c.suspect);
+  const usable = list.data.cultures.filter(canBePitched);
   if (usable.length === 0) {
     return (
       <Notice tone="warning" title="No culture to pitch">

@@ -5,7 +5,12 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
 import { z } from 'zod';
 import { Check, CircleCheck, CircleX, Clock, Hourglass, PackageCheck, X, type LucideIcon } from 'lucide-react';
-import { StrainRequestReceiveSchema, StrainRequestRespondSchema, type StrainRequestDto } from '@barmkeep/schemas';
+import {
+  LIVE_REQUEST_STATUSES,
+  StrainRequestReceiveSchema,
+  StrainRequestRespondSchema,
+  type StrainRequestDto,
+} from '@barmkeep/schemas';
 import { authQueries } from '../api/auth/queries';
 import { clubQueries } from '../api/clubs/queries';
 import { useCancelRequestMutation, useReceiveMutation, useRespondMutation } from '../api/clubs/mutations';
@@ -205,7 +210,7 @@ function TakeBack({ r }: { r: StrainRequestDto }) {
   const club = useClub();
   const cancel = useCancelRequestMutation(club.id);
   const [asking, setAsking] = useState(false);
-  if (!['awaiting_approval', 'open', 'proposed', 'accepted'].includes(r.status)) return null;
+  if (!(LIVE_REQUEST_STATUSES as readonly string[]).includes(r.status)) return null;
   return (
     <div className="mt-3 flex flex-wrap items-center gap-2">
       {asking ? (

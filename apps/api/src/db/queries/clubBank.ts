@@ -1,5 +1,6 @@
 import { and, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
+import { LIVE_REQUEST_STATUSES } from '@barmkeep/schemas';
 import type { DbOrTx } from './clubs';
 import {
   clubActivity,
@@ -25,9 +26,6 @@ export async function findLiveListing(db: DbOrTx, clubId: string, listingId: str
     .limit(1);
   return row;
 }
-
-/** Statuses of a request still under way (not declined, received or cancelled). */
-export const LIVE_REQUEST_STATUSES = ['awaiting_approval', 'open', 'proposed', 'accepted'] as const;
 
 /** Locks the listing row: requests for one listing queue here, so a person cannot ask twice at once. */
 export async function lockListing(db: DbOrTx, listingId: string) {

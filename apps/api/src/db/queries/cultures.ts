@@ -132,34 +132,26 @@ const pageColumns = (where: SQL) => ({
   total: sql<number>`(select count(*) from ${cultures} where ${where})`.mapWith(Number),
 });
 
-function splitTotal(rows: (CultureSummaryRow & { total: number })[]) {
-  const total = rows[0]?.total ?? 0;
-  return { rows: rows.map(({ total: _total, ...row }) => row as CultureSummaryRow), total };
-}
+/** A page in the given order, its total on every row (limit and offset are added by the caller). */
+const pageQuery = (db: Executor, where: SQL, sort: PageSpec['sort'], dir: PageSpec['dir']) =>
+  db
+    .select(pageColumns(where))
+    .from(cultures)
+    .where(where)
+    .orderBy(...SQL_SORTS[sort](dir));
 
 /**
- * One page of cultures and the total, in ONE statement: the page reads only its rows through the
- * (owner, attention, id) index, the total is a scalar subquery (an index-only scan on a settled
- * table), so a page costs one round trip. `count(*) over ()` would instead carry every matching
- * row through a window. A page past the end has no row to carry the total: then it is counted alone.
+ * Strips the carried total off the rows. A page past the end has no row to carry it: then the
+ * matching cultures (`countWhere`) are counted alone.
  */
-export async function listCulturesPage(
+async function pageResult(
   db: Executor,
-  f: CultureListFilter,
+  rows: (CultureSummaryRow & { total: number })[],
   page: PageSpec,
+  countWhere: SQL,
 ): Promise<{ rows: CultureSummaryRow[]; total: number }> {
-  const where = listWhere(f);
-  const found = splitTotal(
-    await db
-      .select(pageColumns(where))
-      .from(cultures)
-      .where(where)
-      .orderBy(...SQL_SORTS[page.sort](page.dir))
-      .limit(page.limit)
-      .offset(page.offset),
-  );
-  if (found.rows.length > 0 || page.offset === 0) return found;
-  return { rows: [], total: await countCultures(db, where) };
+  if (rows.length === 0 && page.offset > 0) return { rows: [], total: await countCultures(db, countWhere) };
+  return { rows: rows.map(({ total: _total, ...row }) => row as CultureSummaryRow), total: rows[0]?.total ?? 0 };
 }
 
 async function countCultures(db: Executor, where: SQL) {
@@ -170,14 +162,26 @@ async function countCultures(db: Executor, where: SQL) {
   return c?.n ?? 0;
 }
 
+/**
+ * One page of cultures and the total, in ONE statement: the page reads only its rows through the
+ * (owner, attention, id) index, the total is a scalar subquery (an index-only scan on a settled
+ * table), so a page costs one round trip. `count(*) over ()` would instead carry every matching
+ * row through a window.
+ */
+export async function listCulturesPage(
+  db: Executor,
+  f: CultureListFilter,
+  page: PageSpec,
+): Promise<{ rows: CultureSummaryRow[]; total: number }> {
+  const where = listWhere(f);
+  const rows = await pageQuery(db, where, page.sort, page.dir).limit(page.limit).offset(page.offset);
+  return pageResult(db, rows, page, where);
+}
+
 const preparedPages = new WeakMap<object, Map<string, ReturnType<typeof preparePage>>>();
 
 function preparePage(db: Db, visible: SQL, sort: PageSpec['sort'], dir: PageSpec['dir']) {
-  return db
-    .select(pageColumns(visible))
-    .from(cultures)
-    .where(visible)
-    .orderBy(...SQL_SORTS[sort](dir))
+  return pageQuery(db, visible, sort, dir)
     .limit(sql.placeholder('limit'))
     .offset(sql.placeholder('offset'))
     .prepare(`cultures_page_${sort}_${dir}`);
@@ -200,11 +204,8 @@ export async function listCulturesDefaultPage(
   const key = `${page.sort}:${page.dir}`;
   let statement = byDb.get(key);
   if (!statement) byDb.set(key, (statement = preparePage(db, access.template, page.sort, page.dir)));
-  const found = splitTotal(
-    await statement.execute({ actorId: access.actorId, limit: page.limit, offset: page.offset }),
-  );
-  if (found.rows.length > 0 || page.offset === 0) return found;
-  return { rows: [], total: await countCultures(db, access.visible) };
+  const rows = await statement.execute({ actorId: access.actorId, limit: page.limit, offset: page.offset });
+  return pageResult(db, rows, page, access.visible);
 }
 
 /** The few columns a viability projection needs, for every culture matching the filter. */

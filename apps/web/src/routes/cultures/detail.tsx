@@ -36,6 +36,7 @@ import {
 } from '../../components';
 import {
   actionLabels,
+  canBePitched,
   eventLabels,
   formatCells,
   formatDate,
@@ -649,7 +650,7 @@ function Actions({ c }: { c: CultureDetailDto }) {
           <ButtonLink to={`/cultures/new?parent=${c.id}&origin=batch_slurry`} variant="secondary">
             Harvest from a batch
           </ButtonLink>
-          {(c.state === 'active' || c.state === 'stored') && !c.suspect ? (
+          {canBePitched(c) ? (
             <ButtonLink to={`/batches/new?cultureId=${c.id}`} variant="secondary">
               Pitch into a batch
             </ButtonLink>
