@@ -39,14 +39,15 @@ describe('PostgreSQL restarted while the API runs', () => {
     });
     expect(made.status).toBe(201);
     const cultureId = made.body.culture.id as string;
-    // let the worker get going (its pg-boss has connections open when the server goes)
+    // let the worker finish starting (its pg-boss has connections open when the server goes): the
+    // cron schedule is the last thing its start-up writes, after both queues
     await waitFor(
       'the worker to start',
       async () => {
         const c = new pg.Client({ connectionString: databaseUrl });
         await c.connect();
         try {
-          const { rows } = await c.query(`select 1 from pgboss.queue where name = 'reminders-users'`);
+          const { rows } = await c.query(`select 1 from pgboss.schedule where name = 'reminders-tick'`);
           return rows.length === 1;
         } finally {
           await c.end();
