@@ -1,5 +1,5 @@
 import { eq, sql, type SQL } from 'drizzle-orm';
-import { cultures, type CultureRow } from '../db/schema';
+import { cultures, users, type CultureRow } from '../db/schema';
 import { findCultureById } from '../db/queries/cultures';
 import { findClubTies } from '../db/queries/clubs';
 import { forbidden, notFound, validationFailed } from '../lib/errors';
@@ -61,6 +61,13 @@ export function visibleCulturesWhere(actor: Actor): SQL {
  * prepared once and run with `{ actorId: actor.id }`. Change the two together.
  */
 export const visibleCulturesTemplate: SQL = eq(cultures.ownerUserId, sql.placeholder('actorId'));
+
+/**
+ * How many cultures `visibleCulturesTemplate` matches, as a scalar SQL expression with the same
+ * placeholder: the owner's counter (users.culture_count, kept by triggers in migration 0014), so
+ * the library's first page does not count the whole library. Change it with the two above.
+ */
+export const visibleCulturesTotalTemplate: SQL = sql`(select ${users.cultureCount} from ${users} where ${users.id} = ${sql.placeholder('actorId')})`;
 
 /** Someone else's culture is indistinguishable from one that does not exist: always 404. */
 export function assertCanView(actor: Actor, c: CultureRow | undefined): CultureRow {

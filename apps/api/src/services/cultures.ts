@@ -51,6 +51,7 @@ import {
   loadCultureForView,
   loadLineageTies,
   visibleCulturesTemplate,
+  visibleCulturesTotalTemplate,
   visibleCulturesWhere,
   type Actor,
 } from './cultureAccess';
@@ -181,7 +182,12 @@ export async function listCultures(ctx: ServiceContext, actor: Actor, q: Culture
     const { rows, total } = unfiltered
       ? await listCulturesDefaultPage(
           ctx.db,
-          { template: visibleCulturesTemplate, actorId: actor.id, visible: filter.visible },
+          {
+            template: visibleCulturesTemplate,
+            totalTemplate: visibleCulturesTotalTemplate,
+            actorId: actor.id,
+            visible: filter.visible,
+          },
           page,
         )
       : await listCulturesPage(ctx.db, filter, page);

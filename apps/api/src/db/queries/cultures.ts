@@ -126,16 +126,16 @@ export type CultureSummaryRow = Pick<CultureRow, keyof typeof summaryColumns>;
 
 type PageSpec = { sort: Exclude<CultureSort, 'viability'>; dir: 'asc' | 'desc'; limit: number; offset: number };
 
-/** The summary columns plus the number of cultures matching `where`, carried on every row. */
-const pageColumns = (where: SQL) => ({
-  ...summaryColumns,
-  total: sql<number>`(select count(*) from ${cultures} where ${where})`.mapWith(Number),
-});
+/** The number of cultures matching `where`, counted. */
+const countOf = (where: SQL) => sql`(select count(*) from ${cultures} where ${where})`;
 
-/** A page in the given order, its total on every row (limit and offset are added by the caller). */
-const pageQuery = (db: Executor, where: SQL, sort: PageSpec['sort'], dir: PageSpec['dir']) =>
+/**
+ * A page in the given order, `total` (a scalar SQL expression) carried on every row; limit and
+ * offset are added by the caller.
+ */
+const pageQuery = (db: Executor, where: SQL, total: SQL, sort: PageSpec['sort'], dir: PageSpec['dir']) =>
   db
-    .select(pageColumns(where))
+    .select({ ...summaryColumns, total: sql<number>`${total}`.mapWith(Number) })
     .from(cultures)
     .where(where)
     .orderBy(...SQL_SORTS[sort](dir));
@@ -174,14 +174,14 @@ export async function listCulturesPage(
   page: PageSpec,
 ): Promise<{ rows: CultureSummaryRow[]; total: number }> {
   const where = listWhere(f);
-  const rows = await pageQuery(db, where, page.sort, page.dir).limit(page.limit).offset(page.offset);
+  const rows = await pageQuery(db, where, countOf(where), page.sort, page.dir).limit(page.limit).offset(page.offset);
   return pageResult(db, rows, page, where);
 }
 
 const preparedPages = new WeakMap<object, Map<string, ReturnType<typeof preparePage>>>();
 
-function preparePage(db: Db, visible: SQL, sort: PageSpec['sort'], dir: PageSpec['dir']) {
-  return pageQuery(db, visible, sort, dir)
+function preparePage(db: Db, visible: SQL, total: SQL, sort: PageSpec['sort'], dir: PageSpec['dir']) {
+  return pageQuery(db, visible, total, sort, dir)
     .limit(sql.placeholder('limit'))
     .offset(sql.placeholder('offset'))
     .prepare(`cultures_page_${sort}_${dir}`);
@@ -191,19 +191,22 @@ function preparePage(db: Db, visible: SQL, sort: PageSpec['sort'], dir: PageSpec
  * The unfiltered library page — what everyone opens — as a named prepared statement: drizzle builds
  * it once per sort and direction, and PostgreSQL parses and plans it once per connection.
  * `access.template` is the access predicate with the actor as the placeholder `actorId`
- * (services/cultureAccess.ts `visibleCulturesTemplate`, the same object on every call);
- * `access.visible` is the same predicate for this actor, for the rare page past the end.
+ * (services/cultureAccess.ts `visibleCulturesTemplate`, the same object on every call) and
+ * `access.totalTemplate` the number of cultures it matches, read from a counter rather than counted
+ * (`visibleCulturesTotalTemplate`); `access.visible` is the predicate for this actor, for the rare
+ * page past the end.
  */
 export async function listCulturesDefaultPage(
   db: Db,
-  access: { template: SQL; actorId: string; visible: SQL },
+  access: { template: SQL; totalTemplate: SQL; actorId: string; visible: SQL },
   page: PageSpec,
 ): Promise<{ rows: CultureSummaryRow[]; total: number }> {
   let byDb = preparedPages.get(db);
   if (!byDb) preparedPages.set(db, (byDb = new Map()));
   const key = `${page.sort}:${page.dir}`;
   let statement = byDb.get(key);
-  if (!statement) byDb.set(key, (statement = preparePage(db, access.template, page.sort, page.dir)));
+  if (!statement)
+    byDb.set(key, (statement = preparePage(db, access.template, access.totalTemplate, page.sort, page.dir)));
   const rows = await statement.execute({ actorId: access.actorId, limit: page.limit, offset: page.offset });
   return pageResult(db, rows, page, access.visible);
 }

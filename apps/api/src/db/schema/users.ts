@@ -17,6 +17,8 @@ export const users = pgTable('users', {
   timeZone: text('time_zone').notNull().default('UTC'),
   /** the number in the person's last culture label code (cultures.label_code); a trigger counts it up */
   cultureLabelSeq: integer('culture_label_seq').notNull().default(0),
+  /** how many cultures the person keeps (owner_user_id): the library's unfiltered total; triggers keep it */
+  cultureCount: integer('culture_count').notNull().default(0),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });

@@ -716,6 +716,41 @@ describe('quarantine', () => {
   });
 });
 
+describe('the library total (users.culture_count, kept by triggers)', () => {
+  it('follows every insert, re-culture, change of keeper and delete, matching a count of the rows', async () => {
+    const pool = t.database.pool;
+    const countOf = async (userId: string) =>
+      Number((await pool.query('select count(*) from cultures where owner_user_id = $1', [userId])).rows[0].count);
+    const { agent, user } = await keeper();
+    const other = await keeper();
+    expect(await total(agent)).toBe(0);
+    const a = await create(agent, buildDregs());
+    const b = await create(agent, buildReculture(a.id));
+    await create(agent, buildReculture(b.id));
+    await create(other.agent, buildDregs());
+    expect(await total(agent)).toBe(3);
+    expect(await total(other.agent)).toBe(1);
+    // a change of keeper moves one from one total to the other (whoever writes it: here plain SQL)
+    await pool.query('update cultures set owner_user_id = $1 where id = $2', [other.user.id, b.id]);
+    expect(await total(agent)).toBe(2);
+    expect(await total(other.agent)).toBe(2);
+    // an update that keeps the keeper leaves both alone
+    await pool.query('update cultures set notes = $1 where owner_user_id = $2', ['moved shelf', user.id]);
+    expect(await total(agent)).toBe(2);
+    // deletes count down, one row or many in one statement
+    await pool.query('update cultures set parent_id = null where owner_user_id in ($1, $2)', [user.id, other.user.id]);
+    await pool.query('delete from cultures where owner_user_id = $1', [other.user.id]);
+    expect(await total(other.agent)).toBe(0);
+    for (const u of [user.id, other.user.id]) {
+      const stored = (await pool.query('select culture_count from users where id = $1', [u])).rows[0].culture_count;
+      expect(stored).toBe(await countOf(u));
+    }
+    // the filtered page still counts: it agrees with the counter when the filter matches everything
+    const everyState = 'active,stored,pitched,used_up,discarded,quarantined';
+    expect((await agent.get(`/api/cultures?state=${everyState}`).expect(200)).body.total).toBe(await total(agent));
+  });
+});
+
 describe('GET /api/cultures/:id/health', () => {
   it('gives a projected series through the coming weeks with the measured points', async () => {
     const { agent } = await keeper();
