@@ -23,6 +23,7 @@ import { connect, runMigrations } from '../src/db/client';
 import { clubs, cultures, memberships, users, type CultureInsert } from '../src/db/schema';
 import { hashPassword } from '../src/lib/password';
 import { createLogger } from '../src/lib/logger';
+import { startCaches } from '../src/cache/caches';
 import { attentionOf } from '../src/services/cultureHealth';
 import { CULTURE_FORMS, type CultureForm } from '@barmkeep/core';
 import { Processes, spawnNode, waitFor } from '../test/faults/processes';
@@ -159,6 +160,8 @@ async function main() {
   const raw = new pg.Pool({ connectionString: databaseUrl, max: POOL });
   raw.on('error', () => {}); // the final drop ends idle connections
   let server: import('node:http').Server | undefined;
+  let serverUncached: import('node:http').Server | undefined;
+  let caches: Awaited<ReturnType<typeof startCaches>> | undefined;
   try {
     await runMigrations(database.db);
     const now = new Date();
@@ -191,10 +194,17 @@ async function main() {
       AUTH_RATE_LIMIT: '1000',
     });
     const mailer = { send: async () => {} };
-    const { app } = createApp({ env, db: database.db, mailer, logger: createLogger(env) });
+    // as deployed: sessions and unfiltered library pages kept in memory (src/cache/caches.ts) …
+    caches = await startCaches({ databaseUrl, seconds: 30, logger: createLogger(env), now: () => new Date() });
+    const { app } = createApp({ env, db: database.db, mailer, logger: createLogger(env), caches });
     server = app.listen(0, '127.0.0.1');
     await new Promise((r) => server!.once('listening', r));
     const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+    // … and the same app without them, for the cost of a request the caches cannot answer
+    const uncached = createApp({ env, db: database.db, mailer, logger: createLogger(env) }).app;
+    serverUncached = uncached.listen(0, '127.0.0.1');
+    await new Promise((r) => serverUncached!.once('listening', r));
+    const baseUncached = `http://127.0.0.1:${(serverUncached.address() as AddressInfo).port}`;
     const signIn = await fetch(`${base}/api/auth/sign-in`, {
       method: 'POST',
       headers: { 'content-type': 'application/json', origin: 'http://bench.test' },
@@ -206,11 +216,17 @@ async function main() {
       .map((c) => c.split(';')[0])
       .join('; ');
 
-    const cases = [
+    const cases: { name: string; path: string; connections: number; signedIn?: boolean; uncached?: boolean }[] = [
       {
         name: 'library list, page 1 of 25 by attention',
         path: '/api/cultures?sort=attention&page=1&pageSize=25',
         connections: CONNECTIONS,
+      },
+      {
+        name: 'library list, page 1 of 25 by attention, caches off',
+        path: '/api/cultures?sort=attention&page=1&pageSize=25',
+        connections: CONNECTIONS,
+        uncached: true,
       },
       // projected viability is core's model, not a column: every matching culture is projected per request
       {
@@ -224,6 +240,9 @@ async function main() {
         path: `/api/cultures/${deepLeaf}/lineage`,
         connections: 10,
       },
+      // the rungs below the list, to see where a request's time goes (run with BENCH_CASES=stack)
+      { name: 'stack: GET /api/health, signed out', path: '/api/health', connections: CONNECTIONS, signedIn: false },
+      { name: 'stack: GET /api/health, signed in', path: '/api/health', connections: CONNECTIONS },
     ];
     const results: string[] = [];
     if (process.env.BENCH_SPLIT === '1') {
@@ -241,7 +260,28 @@ async function main() {
         console.log(`${label}: ${((performance.now() - t) / n).toFixed(2)} ms per call, sequential`);
       };
       await time('service listCultures (drizzle + presenter)', () => listCultures(ctx, { id: owner }, q));
-      await time('HTTP GET /api/cultures (whole stack)', () =>
+      const listed = await listCultures(ctx, { id: owner }, q);
+      if (process.env.BENCH_PROFILE) {
+        const session = new (await import('node:inspector/promises')).Session();
+        session.connect();
+        await session.post('Profiler.enable');
+        await session.post('Profiler.start');
+        for (let i = 0; i < 2000; i++) await listCultures(ctx, { id: owner }, q);
+        const { profile } = await session.post('Profiler.stop');
+        (await import('node:fs')).writeFileSync(
+          `${process.env.BENCH_PROFILE}/listCultures.cpuprofile`,
+          JSON.stringify(profile),
+        );
+        session.disconnect();
+      }
+      await time('JSON.stringify of that page', async () => JSON.stringify(listed), 3000);
+      await time('zod parse of the list query', async () => CultureListSchema.parse({ sort: 'attention' }), 3000);
+      const { createLucia } = await import('../src/services/lucia');
+      const lucia = createLucia(database.db, { secureCookie: false, sessionDays: 30 });
+      const sessionId = lucia.readSessionCookie(cookie)!;
+      await time('lucia validateSession (prepared session + user)', () => lucia.validateSession(sessionId));
+      await time('raw pg select 1', () => raw.query('select 1'));
+      await time('HTTP GET /api/cultures (whole stack, caches on)', () =>
         fetch(`${base}/api/cultures?sort=attention&page=1&pageSize=25`, { headers: { cookie } }).then((r) =>
           r.arrayBuffer(),
         ),
@@ -252,7 +292,9 @@ async function main() {
     }
     // BENCH_CASES=list (or lineage) runs only the cases whose name contains it, e.g. for a CPU profile
     const only = process.env.BENCH_CASES;
-    for (const c of cases.filter((k) => !only || k.name.includes(only))) {
+    for (const c of cases.filter((k) => (only ? k.name.includes(only) : !k.name.startsWith('stack:')))) {
+      const cookieOf = c.signedIn === false ? '' : cookie;
+      const target = c.uncached ? baseUncached : base;
       // capture exactly what one request sends to PostgreSQL
       const captured: unknown[] = [];
       const original = database.pool.query.bind(database.pool);
@@ -262,11 +304,15 @@ async function main() {
         captured.push(Array.isArray(values) ? { ...config, values } : config);
         return (original as (...a: unknown[]) => unknown)(...args);
       };
-      const check = await fetch(`${base}${c.path}`, { headers: { cookie } });
+      const check = await fetch(`${target}${c.path}`, { headers: { cookie: cookieOf } });
       (database.pool as unknown as { query: unknown }).query = original;
       const body = (await check.json()) as { total?: number; nodes?: unknown[] };
       if (!check.ok) throw new Error(`${c.path}: ${check.status}`);
-      const sizeNote = body.nodes ? `${body.nodes.length} nodes` : `${body.total} cultures in all`;
+      const sizeNote = body.nodes
+        ? `${body.nodes.length} nodes`
+        : body.total !== undefined
+          ? `${body.total} cultures in all`
+          : 'no data';
       const dataQueries = captured.filter((q) => !/"sessions"/.test((q as { text: string }).text));
       if (process.env.BENCH_EXPLAIN === '1') {
         for (const q of dataQueries) {
@@ -277,7 +323,7 @@ async function main() {
       }
 
       // warm both sides
-      await cannon({ url: `${base}${c.path}`, connections: 10, duration: 2, cookie });
+      await cannon({ url: `${target}${c.path}`, connections: 10, duration: 2, cookie: cookieOf });
       await rawLoop(raw, captured, 2);
 
       // BENCH_PROFILE=dir writes a CPU profile of the server side of each API run (only that phase)
@@ -288,7 +334,12 @@ async function main() {
         await profiler.post('Profiler.start');
       }
       const cpu0 = process.cpuUsage();
-      const api = await cannon({ url: `${base}${c.path}`, connections: c.connections, duration: SECONDS, cookie });
+      const api = await cannon({
+        url: `${target}${c.path}`,
+        connections: c.connections,
+        duration: SECONDS,
+        cookie: cookieOf,
+      });
       const cpu = process.cpuUsage(cpu0);
       // CPU the server process used per answered request (user + system): not skewed by waiting for a core
       const cpuPerRequest = (cpu.user + cpu.system) / 1000 / api.requests.total;
@@ -313,7 +364,7 @@ async function main() {
       console.log(line.join('\n'));
     }
     // the yardstick, in the same run: Express answering a constant JSON in its own process, same load
-    if (!only || /bare|library/.test(only)) {
+    if (!only || /bare|library|stack/.test(only)) {
       const procs = new Processes();
       try {
         const bare = spawnNode('bench/bare-server.ts', { PORT: '0' }, procs, 'bare');
@@ -338,6 +389,8 @@ async function main() {
     );
   } finally {
     server?.close();
+    serverUncached?.close();
+    await caches?.stop();
     await raw.end();
     await database.close();
     await admin.query(`drop database if exists "${name}" with (force)`);

@@ -14,6 +14,8 @@ import type { ServiceContext } from './services/context';
 import { sessionMiddleware } from './middleware/session';
 import type { AttemptLimitOptions } from './middleware/rateLimit';
 import { originCheck } from './middleware/csrf';
+import { cacheFence } from './middleware/cacheFence';
+import type { Caches } from './cache/caches';
 import { apiNotFound, errorHandler } from './middleware/errors';
 import { authRouter } from './routes/auth/auth';
 import { accountRouter } from './routes/account/account';
@@ -43,6 +45,8 @@ export interface AppDeps {
   now?: () => Date;
   /** Where photos go; by default chosen from env (local disk or S3). */
   storage?: ObjectStorage;
+  /** In-memory caches kept coherent through the database (`startCaches`); absent: nothing is cached. */
+  caches?: Caches;
 }
 
 export function appUrlOf(env: Env) {
@@ -53,8 +57,12 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   const { env, db, mailer, logger } = deps;
   const appUrl = appUrlOf(env);
   const https = appUrl.startsWith('https://');
-  const lucia = createLucia(db, { secureCookie: https, sessionDays: env.SESSION_DAYS });
-  const ctx: ServiceContext = { db, lucia, mailer, appUrl, now: deps.now ?? (() => new Date()) };
+  const lucia = createLucia(db, {
+    secureCookie: https,
+    sessionDays: env.SESSION_DAYS,
+    cache: deps.caches?.sessions,
+  });
+  const ctx: ServiceContext = { db, lucia, mailer, appUrl, now: deps.now ?? (() => new Date()), caches: deps.caches };
 
   const app = express();
   app.disable('x-powered-by');
@@ -83,6 +91,7 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   );
 
   const api = express.Router();
+  api.use(cacheFence(deps.caches));
   api.use(express.json({ limit: '1mb' }));
   // Mail providers' one-click unsubscribe carries no Origin; the secret token is its authority.
   api.use('/email-preferences', oneClickUnsubscribeRouter(ctx));

@@ -5,6 +5,7 @@ import { createLogger } from './lib/logger';
 import { FakeInbox, startFakeSmtp } from './mail/fakeSmtp';
 import { createSmtpMailer, type Mailer } from './mail/mailer';
 import { seedDemoIfEmpty, DEMO_PASSWORD } from './db/seed';
+import { startCaches } from './cache/caches';
 
 const env = loadEnv();
 const logger = createLogger(env);
@@ -29,7 +30,13 @@ if (mailModeOf(env) === 'smtp') {
 let demoUsers: string[] = [];
 if (env.SEED_DEMO === '1') demoUsers = await seedDemoIfEmpty(database.db);
 
-const { app } = createApp({ env, db: database.db, mailer, logger, inbox });
+// sessions and library pages in memory, dropped when the database says they changed (CACHE_SECONDS=0: off)
+const caches =
+  env.CACHE_SECONDS > 0
+    ? await startCaches({ databaseUrl: env.DATABASE_URL, seconds: env.CACHE_SECONDS, logger, now: () => new Date() })
+    : undefined;
+
+const { app } = createApp({ env, db: database.db, mailer, logger, inbox, caches });
 const server = app.listen(env.PORT, env.HOST, () => {
   const url = appUrlOf(env);
   console.log(`\nBarmkeep is running at ${url}`);
@@ -46,6 +53,7 @@ server.headersTimeout = 66_000;
 
 async function shutdown() {
   server.close();
+  await caches?.stop();
   await closeSmtp?.();
   await database.close();
   process.exit(0);

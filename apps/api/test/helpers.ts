@@ -2,6 +2,7 @@ import { inject } from 'vitest';
 import supertest from 'supertest';
 import { randomBytes } from 'node:crypto';
 import { createApp } from '../src/app';
+import { startCaches, type Caches } from '../src/cache/caches';
 import { loadEnv, type Env } from '../src/config/env';
 import { connect, type Database } from '../src/db/client';
 import { createLogger } from '../src/lib/logger';
@@ -19,6 +20,8 @@ export interface TestApp {
   inbox: FakeInbox;
   env: Env;
   clock: { now: Date };
+  /** the app's caches (undefined when the test turned them off) */
+  caches: Caches | undefined;
   close(): Promise<void>;
 }
 
@@ -38,7 +41,14 @@ export async function buildTestApp(overrides: Partial<Record<keyof Env, string>>
   const smtp = await startFakeSmtp(inbox);
   const mailer = createSmtpMailer({ port: smtp.port }, env.MAIL_FROM);
   const clock = { now: new Date() };
-  const { app } = createApp({ env, db: database.db, mailer, logger: createLogger(env), inbox, now: () => clock.now });
+  const logger = createLogger(env);
+  // the caches are on as in production, so every test that writes then reads also checks they
+  // follow the change (CACHE_SECONDS: '0' in overrides turns them off)
+  const caches =
+    env.CACHE_SECONDS > 0
+      ? await startCaches({ databaseUrl: env.DATABASE_URL, seconds: env.CACHE_SECONDS, logger, now: () => clock.now })
+      : undefined;
+  const { app } = createApp({ env, db: database.db, mailer, logger, inbox, now: () => clock.now, caches });
   const agent = () => supertest.agent(app).set('Origin', ORIGIN);
   return {
     app,
@@ -48,7 +58,9 @@ export async function buildTestApp(overrides: Partial<Record<keyof Env, string>>
     inbox,
     env,
     clock,
+    caches,
     async close() {
+      await caches?.stop();
       await smtp.close();
       await database.close();
     },

@@ -35,6 +35,12 @@ const EnvSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   S3_FORCE_PATH_STYLE: z.enum(['0', '1']).default('1'),
   S3_PREFIX: z.string().optional(),
+  /**
+   * How long each API process may serve a signed-in session or a library page from memory without
+   * a change (src/cache/caches.ts; changes reach every process through the database at once, this
+   * is the safety net). 0 turns the caches off.
+   */
+  CACHE_SECONDS: z.coerce.number().int().min(0).max(3600).default(30),
   /** Connections in each API process's pool (docs/deploy.md works out the budget). */
   DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
   /** Connections in the reminders worker's own pool (pg-boss keeps a pool of its own besides). */

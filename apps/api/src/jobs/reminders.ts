@@ -1,8 +1,8 @@
 import PgBoss from 'pg-boss';
-import pg from 'pg';
 import type { Logger } from 'pino';
 import type { DeliveryDeps } from '../services/reminders/delivery';
 import { runReminderTick } from '../services/reminders/tick';
+import { startPgListener } from '../lib/pgListener';
 
 /** The scheduled pass over every rule. */
 export const REMINDER_TICK_QUEUE = 'reminders-tick';
@@ -94,62 +94,16 @@ export function enqueueRecheck(boss: PgBoss, userId: string) {
  * the singleton key keeps that to one job per person per slot (plus at most one for the next slot).
  */
 async function listenForInputChanges(opts: ReminderWorkerOptions, boss: PgBoss): Promise<{ stop(): Promise<void> }> {
-  let client: pg.Client | null = null;
-  let stopped = false;
-  let retryMs = 500;
-  let timer: NodeJS.Timeout | null = null;
-
-  const reconnectLater = () => {
-    if (stopped || timer) return;
-    timer = setTimeout(() => {
-      timer = null;
-      void open();
-    }, retryMs);
-    retryMs = Math.min(retryMs * 2, 30_000);
-  };
-
-  async function open() {
-    const c = new pg.Client({ connectionString: opts.databaseUrl });
-    client = c;
-    c.on('error', (err) => {
-      opts.logger.warn({ err }, 'reminder inputs listener lost its connection');
-      if (client !== c) return;
-      client = null;
-      void c.end().catch(() => {});
-      reconnectLater();
-    });
-    c.on('end', () => {
-      if (client !== c) return;
-      client = null;
-      reconnectLater();
-    });
-    c.on('notification', (msg) => {
-      if (msg.channel !== REMINDER_INPUTS_CHANNEL || !msg.payload) return;
-      enqueueRecheck(boss, msg.payload).catch((err: unknown) =>
-        opts.logger.warn({ err, userId: msg.payload }, 'could not enqueue a reminder re-check'),
+  return startPgListener({
+    databaseUrl: opts.databaseUrl,
+    channels: [REMINDER_INPUTS_CHANNEL],
+    name: 'reminder inputs',
+    logger: opts.logger,
+    onNotification(channel, userId) {
+      if (channel !== REMINDER_INPUTS_CHANNEL || !userId) return;
+      enqueueRecheck(boss, userId).catch((err: unknown) =>
+        opts.logger.warn({ err, userId }, 'could not enqueue a reminder re-check'),
       );
-    });
-    try {
-      await c.connect();
-      await c.query(`LISTEN ${REMINDER_INPUTS_CHANNEL}`);
-      retryMs = 500;
-      if (stopped) await c.end();
-    } catch (err) {
-      opts.logger.warn({ err }, 'reminder inputs listener could not connect');
-      if (client === c) client = null;
-      void c.end().catch(() => {});
-      reconnectLater();
-    }
-  }
-
-  await open();
-  return {
-    async stop() {
-      stopped = true;
-      if (timer) clearTimeout(timer);
-      const c = client;
-      client = null;
-      await c?.end().catch(() => {});
     },
-  };
+  });
 }

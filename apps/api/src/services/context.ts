@@ -1,6 +1,7 @@
 import type { Db } from '../db/client';
 import type { Mailer } from '../mail/mailer';
 import type { AppLucia } from './lucia';
+import type { Caches } from '../cache/caches';
 
 /** What services need from the outside world; passed in, so tests can swap any part. */
 export interface ServiceContext {
@@ -9,6 +10,8 @@ export interface ServiceContext {
   mailer: Mailer;
   appUrl: string;
   now: () => Date;
+  /** in-memory caches kept coherent through the database (absent: nothing is cached) */
+  caches?: Caches;
 }
 
 /**
@@ -21,5 +24,6 @@ export interface ServiceContext {
 export function inTransaction<T>(ctx: ServiceContext, work: (tx: ServiceContext) => Promise<T>): Promise<T> {
   // A transaction offers everything services use of Db (select, insert, update, delete, execute,
   // query, and transaction as a savepoint); only the pool handle `$client` is missing.
-  return ctx.db.transaction((tx) => work({ ...ctx, db: tx as unknown as Db }));
+  // No caches inside: what a transaction reads may never commit.
+  return ctx.db.transaction((tx) => work({ ...ctx, db: tx as unknown as Db, caches: undefined }));
 }

@@ -51,7 +51,11 @@ export async function loadLineageTies(db: Db, actor: Actor): Promise<LineageTies
   return findClubTies(db, actor.id);
 }
 
-/** The SQL predicate matching exactly the cultures `canView` allows, for lists and exports. */
+/**
+ * The SQL predicate matching exactly the cultures `canView` allows, for lists and exports. The
+ * library's cached pages are dropped per keeper (`l:<owner>` notifications, decision 0050): a
+ * wider predicate needs those notifications widened to match.
+ */
 export function visibleCulturesWhere(actor: Actor): SQL {
   return eq(cultures.ownerUserId, actor.id);
 }

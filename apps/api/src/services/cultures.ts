@@ -12,6 +12,7 @@ import {
 import { hemocytometerCount, viabilityFromStain, SQUARE_VOLUME_ML } from '@barmkeep/core';
 import type { z } from 'zod';
 import type {
+  CultureListDto,
   CultureParentDto,
   CultureSplitSchema,
   CultureStateChangeSchema,
@@ -60,6 +61,7 @@ import { deriveGeneration, PARENT_REQUIRED_ORIGINS, ROOT_ONLY_ORIGINS } from './
 import { alertLineage } from './lineageAlerts';
 import { presentCultureDetail, presentCultureSummary, presentEvent, presentLineageNode } from '../presenters/culture';
 import { inTransaction, type ServiceContext } from './context';
+import { libraryOwner } from '../cache/caches';
 
 const MS_PER_DAY = 86_400_000;
 const FUTURE_SKEW_MS = 5 * 60_000;
@@ -169,16 +171,43 @@ function listFilter(actor: Actor, q: CultureListQuery, now: Date): CultureListFi
   };
 }
 
-export async function listCultures(ctx: ServiceContext, actor: Actor, q: CultureListQuery) {
+/**
+ * A page of the library. The unfiltered pages — what people open and come back to, in any order —
+ * are kept in memory (ctx.caches) until one of the person's cultures changes or the cache's time
+ * runs out; filtered pages are always read afresh.
+ */
+export async function listCultures(ctx: ServiceContext, actor: Actor, q: CultureListQuery): Promise<CultureListDto> {
   const now = ctx.now();
   const filter = listFilter(actor, q, now);
+  const unfiltered =
+    q.viabilityMinPct === undefined &&
+    q.viabilityMaxPct === undefined &&
+    Object.entries(filter).every(
+      ([k, v]) => k === 'visible' || v === undefined || (Array.isArray(v) && v.length === 0),
+    );
+  const cache = unfiltered ? ctx.caches?.libraryPages : undefined;
+  if (!cache) return buildCultureList(ctx, q, now, filter, unfiltered, actor);
+  const key = `${actor.id}|${q.sort}|${q.dir}|${q.page}|${q.pageSize}`;
+  const hit = cache.get(key);
+  if (hit) return hit;
+  const ticket = cache.ticket();
+  const list = await buildCultureList(ctx, q, now, filter, unfiltered, actor);
+  cache.set(key, list, [libraryOwner(actor.id)], ticket);
+  return list;
+}
+
+async function buildCultureList(
+  ctx: ServiceContext,
+  q: CultureListQuery,
+  now: Date,
+  filter: ReturnType<typeof listFilter>,
+  unfiltered: boolean,
+  actor: Actor,
+): Promise<CultureListDto> {
   const offset = (q.page - 1) * q.pageSize;
   const byViability = q.sort === 'viability' || q.viabilityMinPct !== undefined || q.viabilityMaxPct !== undefined;
   if (!byViability) {
     const page = { sort: q.sort as Exclude<typeof q.sort, 'viability'>, dir: q.dir, limit: q.pageSize, offset };
-    const unfiltered = Object.entries(filter).every(
-      ([k, v]) => k === 'visible' || v === undefined || (Array.isArray(v) && v.length === 0),
-    );
     const { rows, total } = unfiltered
       ? await listCulturesDefaultPage(
           ctx.db,

@@ -3,16 +3,25 @@ import { DrizzlePostgreSQLAdapter } from '@lucia-auth/adapter-drizzle';
 import { eq, sql } from 'drizzle-orm';
 import type { Db } from '../db/client';
 import { sessions, users } from '../db/schema';
+import type { CoherentCache } from '../cache/coherentCache';
+import { sessionOwner, type CachedSession } from '../cache/caches';
 
 /**
  * The package's adapter, with the one query every signed-in request runs — session and user by
  * session id — as a named prepared statement: drizzle builds it once and PostgreSQL plans it once
  * per connection. Same query, same result shape as the parent's; everything else is the parent's.
+ *
+ * With `cache` (src/cache/caches.ts) a session found is kept in memory until it or its person
+ * changes (the triggers of migration 0015 tell every process; this process also drops it itself
+ * right after its own change) or the cache's time runs out. A session not found is never kept.
  */
 class PreparedSessionAdapter extends DrizzlePostgreSQLAdapter {
   private readonly sessionAndUser;
 
-  constructor(db: Db) {
+  constructor(
+    db: Db,
+    private readonly cache?: CoherentCache<CachedSession>,
+  ) {
     super(db, sessions, users);
     this.sessionAndUser = db
       .select({ user: users, session: sessions })
@@ -23,14 +32,35 @@ class PreparedSessionAdapter extends DrizzlePostgreSQLAdapter {
   }
 
   override async getSessionAndUser(sessionId: string): Promise<[DatabaseSession | null, DatabaseUser | null]> {
+    const hit = this.cache?.get(sessionId);
+    if (hit) return [hit.session, hit.user];
+    const ticket = this.cache?.ticket() ?? 0;
     const rows = await this.sessionAndUser.execute({ sessionId });
     if (rows.length !== 1) return [null, null];
     const { id, userId, expiresAt, ...sessionAttributes } = rows[0]!.session;
     const { id: uid, ...userAttributes } = rows[0]!.user;
-    return [
-      { id, userId, expiresAt, attributes: sessionAttributes },
-      { id: uid, attributes: userAttributes as unknown as DatabaseUser['attributes'] },
-    ];
+    const session: DatabaseSession = Object.freeze({ id, userId, expiresAt, attributes: sessionAttributes });
+    const user: DatabaseUser = Object.freeze({
+      id: uid,
+      attributes: userAttributes as unknown as DatabaseUser['attributes'],
+    });
+    this.cache?.set(sessionId, { session, user }, [sessionId, sessionOwner(userId)], ticket);
+    return [session, user];
+  }
+
+  override async deleteSession(sessionId: string): Promise<void> {
+    await super.deleteSession(sessionId);
+    this.cache?.evict(sessionId);
+  }
+
+  override async deleteUserSessions(userId: string): Promise<void> {
+    await super.deleteUserSessions(userId);
+    this.cache?.evict(sessionOwner(userId));
+  }
+
+  override async updateSessionExpiration(sessionId: string, expiresAt: Date): Promise<void> {
+    await super.updateSessionExpiration(sessionId, expiresAt);
+    this.cache?.evict(sessionId);
   }
 }
 
@@ -38,8 +68,11 @@ class PreparedSessionAdapter extends DrizzlePostgreSQLAdapter {
  * Sessions live in PostgreSQL through lucia v3 (see docs/decisions/0002-sessions-with-lucia-v3.md
  * for why, and the path to the small @oslojs session design that replaces it).
  */
-export function createLucia(db: Db, options: { secureCookie: boolean; sessionDays: number }) {
-  const adapter = new PreparedSessionAdapter(db);
+export function createLucia(
+  db: Db,
+  options: { secureCookie: boolean; sessionDays: number; cache?: CoherentCache<CachedSession> },
+) {
+  const adapter = new PreparedSessionAdapter(db, options.cache);
   return new Lucia(adapter, {
     sessionExpiresIn: new TimeSpan(options.sessionDays, 'd'),
     sessionCookie: {
