@@ -224,9 +224,26 @@ export interface StrainRequestDto {
   createdAt: string;
 }
 
+/** What a line of the club's feed can say; the database enum `club_activity_kind` is built from this list. */
+export const CLUB_ACTIVITY_KINDS = [
+  'member_joined',
+  'member_left',
+  'strain_listed',
+  'strain_withdrawn',
+  'strain_requested',
+  'request_answered',
+  'handoff_received',
+  'culture_quarantined',
+  'stock_added',
+  'stock_withdrawn',
+  /** the member who asked took their request back before receiving anything */
+  'request_withdrawn',
+] as const;
+export type ClubActivityKind = (typeof CLUB_ACTIVITY_KINDS)[number];
+
 export interface ClubActivityDto {
   id: string;
-  kind: string;
+  kind: ClubActivityKind;
   actorName: string | null;
   cultureId: string | null;
   requestId: string | null;

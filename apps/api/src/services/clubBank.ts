@@ -28,7 +28,7 @@ import { attentionOf, projectedViabilityOf } from './cultureHealth';
 import { deriveGeneration } from './cultureLineage';
 import { loadClubFor, roleAtLeast } from './clubAccess';
 import type { Actor } from './clubs';
-import type { ServiceContext } from './context';
+import { inTransaction, type ServiceContext } from './context';
 import { notify } from './notify';
 
 const iso = (d: Date | string | null) => (d ? new Date(d).toISOString() : null);
@@ -411,15 +411,27 @@ async function createChildCulture(
 export async function cancelRequest(ctx: ServiceContext, actor: Actor, clubId: string, requestId: string) {
   await loadClubFor(ctx.db, actor, clubId, 'member');
   const now = ctx.now();
-  return ctx.db.transaction(async (tx) => {
+  return inTransaction(ctx, async (t) => {
+    const tx = t.db;
     const request = await bank.findRequestForUpdate(tx, clubId, requestId);
     if (!request) throw notFound('This request');
     if (request.requesterUserId !== actor.id) throw forbidden('Only the person who asked can take it back');
     if (!LIVE_STATUSES.has(request.status)) throw conflict('request_closed', 'This request is closed already');
     const updated = await bank.updateRequest(tx, requestId, { status: 'cancelled', updatedAt: now });
     const culture = await findCultureById(tx, request.cultureId);
+    // the feed says who took it back and for which strain; the message stays between the two of them
+    await bank.insertActivity(tx, {
+      id: newId(),
+      clubId,
+      actorUserId: actor.id,
+      kind: 'request_withdrawn',
+      cultureId: request.cultureId,
+      requestId,
+      data: { strainName: culture?.strainName ?? '', listingId: request.listingId },
+      createdAt: now,
+    });
     await tell(
-      ctx,
+      t,
       tx,
       request.keeperUserId,
       request,

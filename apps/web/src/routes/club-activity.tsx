@@ -8,6 +8,7 @@ import {
   PackagePlus,
   ShieldAlert,
   Snowflake,
+  Undo2,
   UserMinus,
   UserPlus,
   type LucideIcon,
@@ -40,6 +41,8 @@ export function describeActivity(a: ClubActivityDto): { Icon: LucideIcon; text: 
       return { Icon: PackageMinus, text: `${who} took ${strain} out of the bank` };
     case 'strain_requested':
       return { Icon: HandHeart, text: `${who} asked for ${strain}` };
+    case 'request_withdrawn':
+      return { Icon: Undo2, text: `${who} took back their request for ${strain || 'a strain'}` };
     case 'request_answered':
       return { Icon: MessageSquareReply, text: `${who} ${answerWords[str(a.data.status)] ?? 'answered a request'}` };
     case 'handoff_received':
@@ -63,8 +66,11 @@ export function describeActivity(a: ClubActivityDto): { Icon: LucideIcon; text: 
         Icon: Snowflake,
         text: `${who} took one ${str(a.data.unit)} of ${strain} out of the club’s stock (${String(a.data.unitsLeft ?? '')} left)`,
       };
-    default:
-      return { Icon: MessageSquareReply, text: `${who}: ${a.kind.replace(/_/g, ' ')}` };
+    default: {
+      // a kind this page does not know yet (a newer server): say what little we can
+      const kind: string = a.kind;
+      return { Icon: MessageSquareReply, text: `${who}: ${kind.replace(/_/g, ' ')}` };
+    }
   }
 }
 

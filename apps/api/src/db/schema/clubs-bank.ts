@@ -1,5 +1,6 @@
 import { pgTable, text, timestamp, pgEnum, index, uniqueIndex, jsonb, integer, check } from 'drizzle-orm/pg-core';
 import { sql } from 'drizzle-orm';
+import { CLUB_ACTIVITY_KINDS } from '@barmkeep/schemas';
 import { users } from './users';
 import { clubs } from './clubs';
 import { cultures, cultureForm } from './cultures';
@@ -83,18 +84,7 @@ export const strainRequests = pgTable(
   ],
 );
 
-export const clubActivityKind = pgEnum('club_activity_kind', [
-  'member_joined',
-  'member_left',
-  'strain_listed',
-  'strain_withdrawn',
-  'strain_requested',
-  'request_answered',
-  'handoff_received',
-  'culture_quarantined',
-  'stock_added',
-  'stock_withdrawn',
-]);
+export const clubActivityKind = pgEnum('club_activity_kind', CLUB_ACTIVITY_KINDS);
 
 /** The club's feed, newest first; each row is a sentence's worth of facts, not free text. */
 export const clubActivity = pgTable(

@@ -6,20 +6,22 @@ import { buildDregs } from '../../../test/cultureFactories';
 import { cultures, notifications } from '../../db/schema';
 
 let t: TestApp;
-let keeper: Person, asker: Person, steward: Person, outsider: Person;
+let keeper: Person, asker: Person, steward: Person, outsider: Person, bystander: Person;
 let clubId: string;
 beforeAll(async () => {
   t = await buildTestApp();
-  [keeper, asker, steward, outsider] = (await Promise.all([
+  [keeper, asker, steward, outsider, bystander] = (await Promise.all([
     signedUpPerson(t, 'Keeper Kell'),
     signedUpPerson(t, 'Asker Ash'),
     signedUpPerson(t, 'Steward Sol'),
     signedUpPerson(t, 'Outsider Oz'),
-  ])) as [Person, Person, Person, Person];
+    signedUpPerson(t, 'Bystander Bea'),
+  ])) as [Person, Person, Person, Person, Person];
   clubId = await buildClub(t, [
     { person: keeper, role: 'owner' },
     { person: asker, role: 'member' },
     { person: steward, role: 'steward' },
+    { person: bystander, role: 'member' },
   ]);
 });
 afterAll(async () => {
@@ -155,9 +157,27 @@ describe('club bank, requests and handoffs', () => {
       .expect(201);
     // the one who asked can take it back (nobody else can), and then ask anew
     await steward.agent.post(`/api/clubs/${clubId}/requests/${again.body.request.id}/cancel`).expect(403);
+    tick();
     const back = await asker.agent.post(`/api/clubs/${clubId}/requests/${again.body.request.id}/cancel`).expect(200);
     expect(back.body.request).toEqual({ id: again.body.request.id, status: 'cancelled' });
     await asker.agent.post(`/api/clubs/${clubId}/requests/${again.body.request.id}/cancel`).expect(409);
+    // the club's feed says so, to every member (not only the two involved), and nothing more
+    const feed = await bystander.agent.get(`/api/clubs/${clubId}/activity?limit=5`).expect(200);
+    expect(feed.body.activity[0]).toEqual({
+      id: expect.any(String),
+      kind: 'request_withdrawn',
+      actorName: 'Asker Ash',
+      cultureId: root.id,
+      requestId: again.body.request.id,
+      data: { strainName: root.strainName, listingId },
+      createdAt: t.clock.now.toISOString(),
+    });
+    const withdrawn = feed.body.activity.filter((a: { kind: string }) => a.kind === 'request_withdrawn');
+    expect(withdrawn).toHaveLength(1); // the refused second take-back wrote nothing
+    for (const secret of ['Next month?', 'None to spare this month', 'jar behind the pickles']) {
+      expect(JSON.stringify(feed.body)).not.toContain(secret);
+    }
+    await outsider.agent.get(`/api/clubs/${clubId}/activity`).expect(404);
     const told = await t.database.db.select().from(notifications).where(eq(notifications.userId, keeper.id));
     expect(told.some((n) => n.title === 'Asker Ash no longer needs ' + root.strainName)).toBe(true);
     await asker.agent.post(`/api/clubs/${clubId}/requests`).send({ listingId, message: 'Later after all' }).expect(201);

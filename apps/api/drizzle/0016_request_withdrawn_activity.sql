@@ -1,0 +1,1 @@
+ALTER TYPE "public"."club_activity_kind" ADD VALUE 'request_withdrawn';
