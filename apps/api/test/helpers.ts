@@ -16,6 +16,10 @@ export interface TestApp {
   request: ReturnType<typeof supertest.agent>;
   /** A new cookie jar (another browser) on the same app. */
   agent(): ReturnType<typeof supertest.agent>;
+  /**
+   * The test's own connections to the app's database (not the app's pool). With the caches on,
+   * each query through them returns only once the app has heard what it changed.
+   */
   database: Database;
   inbox: FakeInbox;
   env: Env;
@@ -49,12 +53,17 @@ export async function buildTestApp(overrides: Partial<Record<keyof Env, string>>
       ? await startCaches({ databaseUrl: env.DATABASE_URL, seconds: env.CACHE_SECONDS, logger, now: () => clock.now })
       : undefined;
   const { app } = createApp({ env, db: database.db, mailer, logger, inbox, now: () => clock.now, caches });
+  // The test's own hands on the database, apart from the app's pool: a write through them is, to
+  // the app, another process's write, so each query and transaction waits until the app has heard
+  // its notifications (`fence`) — as a request that writes does — before the test goes on.
+  const hands = connect(env.DATABASE_URL, { max: 2 });
+  if (caches) settleAfterEachWrite(hands, caches);
   const agent = () => supertest.agent(app).set('Origin', ORIGIN);
   return {
     app,
     request: agent(),
     agent,
-    database,
+    database: hands,
     inbox,
     env,
     clock,
@@ -62,9 +71,25 @@ export async function buildTestApp(overrides: Partial<Record<keyof Env, string>>
     async close() {
       await caches?.stop();
       await smtp.close();
+      await hands.close();
       await database.close();
     },
   };
+}
+
+function settleAfterEachWrite(database: Database, caches: Caches) {
+  const query = database.pool.query.bind(database.pool) as (...args: unknown[]) => Promise<unknown>;
+  (database.pool as unknown as { query: unknown }).query = async (...args: unknown[]) => {
+    const result = await query(...args);
+    await caches.fence();
+    return result;
+  };
+  const transaction = database.db.transaction.bind(database.db);
+  database.db.transaction = (async (...args: Parameters<typeof transaction>) => {
+    const result = await transaction(...args);
+    await caches.fence();
+    return result;
+  }) as typeof transaction;
 }
 
 let counter = 0;

@@ -138,18 +138,26 @@ export async function startApi(
     procs,
     name,
   );
+  const started = Date.now();
+  let lastAnswer = 'no answer yet';
   try {
     await waitFor(
       `${name} on ${url}`,
       async () => {
         if (proc.child.exitCode !== null) throw new Error(`${name} exited:\n${proc.output()}`);
-        const res = await fetch(`${url}/api/health`);
+        const res = await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(5_000) }).catch((err: Error) => {
+          lastAnswer = `${err.message} (${String((err.cause as Error | undefined)?.message ?? err.cause)})`;
+          throw err;
+        });
+        lastAnswer = `${res.status} ${await res.text()}`;
         return res.ok;
       },
-      30_000,
+      60_000,
     );
   } catch (err) {
-    throw new Error(`${String(err)}\n--- ${name} output ---\n${proc.output()}`);
+    throw new Error(
+      `${String(err)}\nlast answer after ${Date.now() - started} ms: ${lastAnswer}\n--- ${name} output ---\n${proc.output()}`,
+    );
   }
   return { ...proc, port, url };
 }
