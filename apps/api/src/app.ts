@@ -1,8 +1,7 @@
 import express, { type Express } from 'express';
 import helmet from 'helmet';
-import { pinoHttp } from 'pino-http';
 import type { Logger } from 'pino';
-import { randomUUID } from 'node:crypto';
+import { httpLogger } from './lib/requestLog';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import type { Env } from './config/env';
@@ -67,17 +66,7 @@ export function createApp(deps: AppDeps): { app: Express; ctx: ServiceContext } 
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', env.TRUST_PROXY);
-  app.use(
-    pinoHttp({
-      logger,
-      genReqId: (req, res) => {
-        const id = randomUUID();
-        res.setHeader('X-Request-Id', id);
-        return id;
-      },
-      autoLogging: env.NODE_ENV !== 'test',
-    }),
-  );
+  app.use(httpLogger(logger, { autoLogging: env.NODE_ENV !== 'test' }));
   app.use(
     helmet({
       contentSecurityPolicy: {

@@ -716,6 +716,25 @@ describe('quarantine', () => {
   });
 });
 
+describe('GET /api/cultures answers', () => {
+  it('with a tag a browser can revalidate: 304 while nothing changed, the new page after a change', async () => {
+    const { agent } = await keeper();
+    const a = await create(agent, buildDregs({ strainName: 'Millpond ale' }));
+    const first = await agent.get('/api/cultures').expect(200);
+    const tag = first.headers.etag as string;
+    expect(tag).toMatch(/^W\/"/);
+    const again = await agent.get('/api/cultures').expect(200); // from the cache: same body, same tag
+    expect(again.headers.etag).toBe(tag);
+    expect(again.body).toEqual(first.body);
+    await agent.get('/api/cultures').set('If-None-Match', tag).expect(304);
+    await agent.patch(`/api/cultures/${a.id}`).send({ strainName: 'Millpond ale, second jar' }).expect(200);
+    const changed = await agent.get('/api/cultures').set('If-None-Match', tag).expect(200);
+    expect(changed.headers.etag).not.toBe(tag);
+    expect(changed.body.cultures[0].strainName).toBe('Millpond ale, second jar');
+    expect(changed.headers['content-type']).toMatch(/^application\/json; charset=utf-8/);
+  });
+});
+
 describe('the library total (users.culture_count, kept by triggers)', () => {
   it('follows every insert, re-culture, change of keeper and delete, matching a count of the rows', async () => {
     const pool = t.database.pool;

@@ -1,4 +1,5 @@
 import { Router, type RequestHandler } from 'express';
+import { sendJsonOnce } from '../../lib/jsonOnce';
 import multer from 'multer';
 import { AppError, badRequest } from '../../lib/errors';
 import { exportBackup, exportLibraryCsv, importBackup } from '../../services/cultureBackup';
@@ -93,7 +94,7 @@ export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
   });
 
   router.get('/', validate({ query: CultureListSchema }), async (req, res) => {
-    res.json(await listCultures(ctx, currentUser(req), req.query as unknown as CultureListQuery));
+    sendJsonOnce(req, res, await listCultures(ctx, currentUser(req), req.query as unknown as CultureListQuery));
   });
 
   router.post('/', validate({ body: makeCultureCreateSchema(ctx.now) }), async (req, res) => {
