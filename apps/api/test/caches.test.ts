@@ -105,6 +105,31 @@ describe('caches across two instances', () => {
     expect((await p.agent.get('/api/cultures').expect(200)).body.cultures[0].state).toBe('discarded');
   });
 
+  it("a write to one's own records drops one's pages at once; a write that can reach others fences", async () => {
+    const p = await personOnA();
+    const root = (await p.agent.post('/api/cultures').send(buildDregs()).expect(201)).body.culture;
+    await p.agent.get('/api/cultures').expect(200);
+    let fences = 0;
+    const fence = a.caches!.fence.bind(a.caches);
+    a.caches!.fence = () => {
+      fences++;
+      return fence();
+    };
+    try {
+      await p.agent.post(`/api/cultures/${root.id}/events`).send({ kind: 'note', notes: 'lid re-taped' }).expect(201);
+      await p.agent.patch(`/api/cultures/${root.id}`).send({ strainName: 'Weir pale, own edit' }).expect(200);
+      expect(fences).toBe(0);
+      // served afresh straight away, without waiting for the notification
+      const listed = (await p.agent.get('/api/cultures').expect(200)).body.cultures;
+      expect(listed[0].strainName).toBe('Weir pale, own edit');
+      // quarantine can flag cultures other people keep: it waits for the fence
+      await p.agent.post(`/api/cultures/${root.id}/quarantine`).send({ flagDescendantIds: [] }).expect(200);
+      expect(fences).toBe(1);
+    } finally {
+      a.caches!.fence = fence;
+    }
+  });
+
   it('bookkeeping writes the library does not show leave the cached page alone', async () => {
     const p = await personOnA();
     await p.agent.post('/api/cultures').send(buildDregs()).expect(201);

@@ -35,6 +35,8 @@ export interface Caches {
    * sees the change even if its notification was still on the wire.
    */
   fence(): Promise<void>;
+  /** Drop what this process keeps of one person (their sessions and library pages), at once. */
+  dropPerson(userId: string): void;
   stop(): Promise<void>;
 }
 
@@ -113,6 +115,10 @@ export async function startCaches(opts: {
         clearTimeout(timer);
         fences.delete(id);
       }
+    },
+    dropPerson(userId) {
+      sessions.evict(sessionOwner(userId));
+      libraryPages.evict(libraryOwner(userId));
     },
     async stop() {
       setEnabled(false);

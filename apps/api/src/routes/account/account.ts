@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import { ownChangesOnly } from '../../middleware/cacheFence';
 import { validate } from '../../middleware/validate';
 import { currentUser, requireUser } from '../../middleware/session';
 import { presentUser } from '../../presenters/user';
@@ -8,6 +9,8 @@ import { AccountPasswordChangeSchema, AccountUpdateSchema } from './schema';
 
 export function accountRouter(ctx: ServiceContext) {
   const router = Router();
+  // every write here changes only the signed-in person's own records (middleware/cacheFence.ts)
+  router.use(ownChangesOnly);
   router.use(requireUser);
   router.patch('/', validate({ body: AccountUpdateSchema }), async (req, res) => {
     const user = await updateAccount(ctx, currentUser(req).id, req.body);

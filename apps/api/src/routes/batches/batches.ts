@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import { ownChangesOnly } from '../../middleware/cacheFence';
 import { validate } from '../../middleware/validate';
 import { currentUser, requireUser } from '../../middleware/session';
 import type { ServiceContext } from '../../services/context';
@@ -20,6 +21,8 @@ import {
 
 export function batchesRouter(ctx: ServiceContext) {
   const router = Router();
+  // every write here changes only the signed-in person's own records (middleware/cacheFence.ts)
+  router.use(ownChangesOnly);
   router.use(requireUser);
   const id = (req: { params: unknown }) => (req.params as { id: string }).id;
 

@@ -1,5 +1,6 @@
 import { Router, type RequestHandler } from 'express';
 import { sendJsonOnce } from '../../lib/jsonOnce';
+import { ownChangesOnly } from '../../middleware/cacheFence';
 import multer from 'multer';
 import { AppError, badRequest } from '../../lib/errors';
 import { exportBackup, exportLibraryCsv, importBackup } from '../../services/cultureBackup';
@@ -89,7 +90,7 @@ export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
     res.json(backup);
   });
 
-  router.post('/backup', receiveBackup(), async (req, res) => {
+  router.post('/backup', ownChangesOnly, receiveBackup(), async (req, res) => {
     res.status(201).json({ imported: await importBackup(ctx, storage, currentUser(req), req.file!.buffer) });
   });
 
@@ -97,7 +98,7 @@ export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
     sendJsonOnce(req, res, await listCultures(ctx, currentUser(req), req.query as unknown as CultureListQuery));
   });
 
-  router.post('/', validate({ body: makeCultureCreateSchema(ctx.now) }), async (req, res) => {
+  router.post('/', ownChangesOnly, validate({ body: makeCultureCreateSchema(ctx.now) }), async (req, res) => {
     const row = await createCulture(ctx, currentUser(req), req.body);
     res.status(201).json({ culture: await presentDetail(ctx, currentUser(req), row) });
   });
@@ -106,10 +107,15 @@ export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
     res.json({ culture: await getCultureDetail(ctx, currentUser(req), id(req)) });
   });
 
-  router.patch('/:id', validate({ params: CultureIdParamsSchema, body: CultureUpdateSchema }), async (req, res) => {
-    const row = await updateCulture(ctx, currentUser(req), id(req), req.body);
-    res.json({ culture: await presentDetail(ctx, currentUser(req), row) });
-  });
+  router.patch(
+    '/:id',
+    ownChangesOnly,
+    validate({ params: CultureIdParamsSchema, body: CultureUpdateSchema }),
+    async (req, res) => {
+      const row = await updateCulture(ctx, currentUser(req), id(req), req.body);
+      res.json({ culture: await presentDetail(ctx, currentUser(req), row) });
+    },
+  );
 
   router.get(
     '/:id/health',
@@ -126,6 +132,7 @@ export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
 
   router.post(
     '/:id/events',
+    ownChangesOnly,
     validate({ params: CultureIdParamsSchema, body: CultureEventCreateSchema }),
     async (req, res) => {
       const user = currentUser(req);
@@ -136,6 +143,7 @@ export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
 
   router.post(
     '/:id/state',
+    ownChangesOnly,
     validate({ params: CultureIdParamsSchema, body: CultureStateChangeSchema }),
     async (req, res) => {
       const row = await changeCultureState(ctx, currentUser(req), id(req), req.body);
@@ -143,11 +151,16 @@ export function culturesRouter(ctx: ServiceContext, storage: ObjectStorage) {
     },
   );
 
-  router.post('/:id/split', validate({ params: CultureIdParamsSchema, body: CultureSplitSchema }), async (req, res) => {
-    const rows = await splitCulture(ctx, currentUser(req), id(req), req.body);
-    const now = ctx.now();
-    res.status(201).json({ cultures: rows.map((r) => presentCultureSummary(r, now)) });
-  });
+  router.post(
+    '/:id/split',
+    ownChangesOnly,
+    validate({ params: CultureIdParamsSchema, body: CultureSplitSchema }),
+    async (req, res) => {
+      const rows = await splitCulture(ctx, currentUser(req), id(req), req.body);
+      const now = ctx.now();
+      res.status(201).json({ cultures: rows.map((r) => presentCultureSummary(r, now)) });
+    },
+  );
 
   router.get('/:id/lineage', validate({ params: CultureIdParamsSchema }), async (req, res) => {
     res.json(await getLineage(ctx, currentUser(req), id(req)));

@@ -1,4 +1,5 @@
 import { Router, type RequestHandler } from 'express';
+import { ownChangesOnly } from '../../middleware/cacheFence';
 import multer from 'multer';
 import { photoLimits } from '@barmkeep/schemas';
 import { validate } from '../../middleware/validate';
@@ -45,6 +46,8 @@ const PhotoDeleteParams = z.object({ id: z.string().min(1).max(64), photoId: z.s
 
 export function culturePhotosRouter(ctx: ServiceContext, storage: ObjectStorage) {
   const router = Router({ mergeParams: true });
+  // every write here changes only the signed-in person's own records (middleware/cacheFence.ts)
+  router.use(ownChangesOnly);
   router.use(requireUser);
 
   router.get('/:id/photos', validate({ params: CultureIdParamsSchema }), async (req, res) => {

@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import { ownChangesOnly } from '../../middleware/cacheFence';
 import { validate } from '../../middleware/validate';
 import { currentUser, requireUser } from '../../middleware/session';
 import type { ServiceContext } from '../../services/context';
@@ -22,6 +23,8 @@ import {
 /** Starter plans: the route parses, the service authorizes and asks core for every number. */
 export function plansRouter(ctx: ServiceContext) {
   const router = Router();
+  // every write here changes only the signed-in person's own records (middleware/cacheFence.ts)
+  router.use(ownChangesOnly);
   router.use(requireUser);
   const params = (req: { params: unknown }) => req.params as { id: string; stepId: string };
   const create = makePlanCreateSchema(ctx.now);
